@@ -1,0 +1,153 @@
+// Package nb shows beamnote results in a notebook cell: SVG figures, HTML
+// tables and Markdown, through gonb's display channel.
+//
+// The same calls work outside a notebook (go run, go test): they print a
+// plain-text fallback to standard output instead, and figures can be written
+// to files with [SaveSVG]. Every display call waits until the kernel has
+// taken the output (gonbui.Sync), so nothing is lost when a cell ends.
+//
+// # Figures
+//
+// A figure is sent as one display bundle carrying the SVG twice, as
+// image/svg+xml and as inline HTML, plus a text/plain caption. Notebook
+// front-ends prefer the HTML copy; nbconvert's HTML export keeps it too; the
+// image/svg+xml copy is what tools that extract figures look for.
+//
+// # Headless runs
+//
+// [Headless] reports whether the notebook runs without a browser
+// (BEAMNOTE_HEADLESS=1, set by `make test`). Interactive widgets wait for a
+// browser that never comes, so code that uses them must check it first.
+package nb
+
+import (
+	"bytes"
+	"fmt"
+	"html"
+	"io"
+	"os"
+	"strings"
+	"unicode/utf8"
+
+	"github.com/beamnote/beamnote/kernel/internal/atomicfile"
+	"github.com/janpfeifer/gonb/gonbui"
+	"github.com/janpfeifer/gonb/gonbui/protocol"
+)
+
+// Out is where the plain-text fallbacks go outside a notebook.
+var Out io.Writer = os.Stdout
+
+// InNotebook reports whether the program runs as a gonb notebook cell.
+func InNotebook() bool { return gonbui.IsNotebook }
+
+// Headless reports whether the notebook is being executed without a browser
+// (BEAMNOTE_HEADLESS=1), as under `make test`.
+func Headless() bool { return os.Getenv("BEAMNOTE_HEADLESS") == "1" }
+
+// SVG shows an SVG document with a short caption (used as the text
+// fallback and as the figure's accessible title). Outside a notebook it
+// prints "[figure: caption (N bytes of SVG)]"; if BEAMNOTE_FIGURE_DIR is set
+// it also writes the SVG there under a name made from the caption.
+func SVG(svg []byte, caption string) error {
+	if len(bytes.TrimSpace(svg)) == 0 {
+		return fmt.Errorf("nb: figure %q: empty SVG", caption)
+	}
+	if !InNotebook() {
+		fmt.Fprintf(Out, "[figure: %s (%d bytes of SVG)]\n", caption, len(svg))
+		if dir := os.Getenv("BEAMNOTE_FIGURE_DIR"); dir != "" {
+			path := strings.TrimRight(dir, "/") + "/" + fileName(caption) + ".svg"
+			if err := SaveSVG(path, svg); err != nil {
+				return err
+			}
+			fmt.Fprintf(Out, "[figure written to %s]\n", path)
+		}
+		return nil
+	}
+	inline := stripXMLHeader(svg)
+	gonbui.SendData(&protocol.DisplayData{
+		Data: map[protocol.MIMEType]any{
+			protocol.MIMEImageSVG:  string(svg),
+			protocol.MIMETextHTML:  `<div class="beamnote-figure" title="` + html.EscapeString(caption) + `">` + inline + `</div>`,
+			protocol.MIMETextPlain: "[figure: " + caption + "]",
+		},
+	})
+	return sync()
+}
+
+// SaveSVG writes an SVG figure to path atomically.
+func SaveSVG(path string, svg []byte) error {
+	if err := atomicfile.Write(path, svg, 0o644); err != nil {
+		return fmt.Errorf("nb: %w", err)
+	}
+	return nil
+}
+
+// Markdown shows Markdown text; outside a notebook it prints it as is.
+func Markdown(md string) error {
+	if !InNotebook() {
+		fmt.Fprintln(Out, strings.TrimRight(md, "\n"))
+		return nil
+	}
+	gonbui.SendData(&protocol.DisplayData{
+		Data: map[protocol.MIMEType]any{
+			protocol.MIMETextMarkdown: md,
+			protocol.MIMETextPlain:    md,
+		},
+	})
+	return sync()
+}
+
+// HTML shows an HTML fragment with a plain-text alternative for
+// front-ends and terminals that cannot render it.
+func HTML(fragment, plain string) error {
+	if !InNotebook() {
+		fmt.Fprintln(Out, strings.TrimRight(plain, "\n"))
+		return nil
+	}
+	gonbui.SendData(&protocol.DisplayData{
+		Data: map[protocol.MIMEType]any{
+			protocol.MIMETextHTML:  fragment,
+			protocol.MIMETextPlain: plain,
+		},
+	})
+	return sync()
+}
+
+func sync() error {
+	gonbui.Sync()
+	if err := gonbui.Error(); err != nil {
+		return fmt.Errorf("nb: sending output to the notebook: %w", err)
+	}
+	return nil
+}
+
+func stripXMLHeader(svg []byte) string {
+	s := string(svg)
+	if strings.HasPrefix(s, "<?xml") {
+		if i := strings.Index(s, "?>"); i >= 0 {
+			s = s[i+2:]
+		}
+	}
+	return strings.TrimSpace(s)
+}
+
+// fileName makes a safe file name from a caption.
+func fileName(caption string) string {
+	var b strings.Builder
+	for _, r := range strings.ToLower(caption) {
+		switch {
+		case r >= 'a' && r <= 'z', r >= '0' && r <= '9':
+			b.WriteRune(r)
+		case b.Len() > 0 && !strings.HasSuffix(b.String(), "-"):
+			b.WriteByte('-')
+		}
+	}
+	s := strings.Trim(b.String(), "-")
+	if s == "" {
+		s = "figure"
+	}
+	if utf8.RuneCountInString(s) > 60 {
+		s = s[:60]
+	}
+	return s
+}

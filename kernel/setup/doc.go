@@ -1,0 +1,41 @@
+// Package setup prepares, checks and serves the beamnote Jupyter kernel.
+//
+// The kernel is gonb (github.com/janpfeifer/gonb) at the exact version pinned
+// in the checkout's go.mod, built from the module cache with goimports beside
+// it. Everything set-up writes goes under a state directory, by default
+// <checkout>/.beamnote, so nothing global changes unless the user asks for a
+// per-user kernelspec:
+//
+//	.beamnote/bin/gonb, goimports    tools built at the pinned versions
+//	.beamnote/bin/shim/go            wrapper of the go command (see below)
+//	.beamnote/jupyter/               Jupyter data dir (JUPYTER_DATA_DIR)
+//	.beamnote/jupyter/kernels/beamnote/kernel.json, logo-*.png, logo-svg.svg
+//
+// # Cell module
+//
+// gonb compiles each cell in a fresh module that it creates with "go mod init"
+// in a temporary directory, then runs "go get" for the cell's imports. A
+// module that is not published (this checkout) must be both required and
+// replaced there, before the first cell runs. The kernel's PATH therefore
+// starts with a small shell wrapper named go: when gonb runs "go mod init" in
+// its own temporary directory ($GONB_TMP_DIR), the wrapper lets the real go
+// command create the module and then adds
+//
+//	require github.com/beamnote/beamnote v0.0.0
+//	replace github.com/beamnote/beamnote => <checkout>
+//
+// with the checkout's requirements and go.sum, so cells import any opticslib
+// package with GOPROXY=off and no set-up cell. Every other invocation is
+// handed to the real go command unchanged.
+//
+// # Build cache
+//
+// [Warm] compiles a program that imports every package of the checkout with
+// the kernel's environment and flags, so the first cell of a new kernel links
+// from the build cache instead of compiling gonum and gonum/plot cold.
+//
+// # Errors
+//
+// Functions return errors that name the step and the command that failed;
+// nothing here panics on the state of the machine.
+package setup

@@ -1,0 +1,165 @@
+package setup
+
+import (
+	"encoding/json"
+	"fmt"
+	"io"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+)
+
+// Check is one line of the doctor's report.
+type Check struct {
+	Name   string // what was checked
+	OK     bool
+	Detail string // what was found
+	Fix    string // what to do when not OK
+}
+
+const fixDeps = "run `make notebook` (it calls kernel/install-deps.sh: Debian/Ubuntu packages " +
+	"jupyter-notebook python3-nbconvert python3-nbclient jupyter-client); elsewhere install " +
+	"Jupyter Notebook 6.x, nbconvert and nbclient with your package manager"
+
+// Doctor inspects the machine and the checkout and reports what is missing,
+// with the fix for each item. user selects the per-user kernelspec.
+func Doctor(l Layout, user bool) []Check {
+	var cs []Check
+	add := func(name string, err error, detail, fix string) {
+		c := Check{Name: name, OK: err == nil, Detail: detail, Fix: fix}
+		if err != nil {
+			c.Detail = err.Error()
+		}
+		cs = append(cs, c)
+	}
+
+	gv, err := l.output("", l.RealGo, "env", "GOVERSION")
+	if err == nil {
+		err = CheckGoVersion(l)
+	}
+	add("Go ≥ "+MinGo, err, strings.TrimSpace(gv)+" at "+l.RealGo, "install Go "+MinGo+" or newer from https://go.dev/dl and put it on PATH")
+
+	jup := Jupyter()
+	var jerr error
+	detail := jup
+	if jup == "" {
+		jerr = fmt.Errorf("no jupyter command")
+	}
+	add("jupyter", jerr, detail, fixDeps)
+	py := Python()
+	for _, mod := range []struct{ name, module string }{
+		{"nbconvert (headless execution)", "nbconvert"},
+		{"nbclient", "nbclient"},
+		{"jupyter_client (kernelspec)", "jupyter_client"},
+		{"notebook server", "notebook"},
+	} {
+		var err error
+		var out []byte
+		if py == "" {
+			err = fmt.Errorf("no python3")
+		} else {
+			out, err = exec.Command(py, "-c", "import "+mod.module+"; print("+mod.module+".__version__)").CombinedOutput()
+			if err != nil {
+				err = fmt.Errorf("%s cannot import %s", py, mod.module)
+			}
+		}
+		add(mod.name, err, strings.TrimSpace(string(out)), fixDeps)
+	}
+
+	want, verr := l.PinnedVersion(gonbPkg)
+	gonb := filepath.Join(l.Bin(), "gonb")
+	got, gerr := l.output("", gonb, "-V")
+	if gerr == nil && verr == nil && !strings.Contains(got, want) {
+		gerr = fmt.Errorf("%s reports %q, go.mod pins %s", gonb, strings.TrimSpace(got), want)
+	}
+	if verr != nil {
+		gerr = verr
+	}
+	add("gonb "+want, gerr, gonb, "run `make kernel`")
+	_, ierr := os.Stat(filepath.Join(l.Bin(), "goimports"))
+	add("goimports", ierr, filepath.Join(l.Bin(), "goimports"), "run `make kernel`")
+	b, serr := os.ReadFile(l.shimPath())
+	if serr == nil && shimRealGo(b) != l.RealGo {
+		serr = fmt.Errorf("%s calls %s, but go is %s", l.shimPath(), shimRealGo(b), l.RealGo)
+	}
+	add("go wrapper for cells", serr, l.shimPath(), "run `make kernel`")
+
+	dataDir := l.JupyterData()
+	if user {
+		if d, err := UserJupyterData(); err == nil {
+			dataDir = d
+		}
+	}
+	kj := filepath.Join(KernelDir(dataDir), "kernel.json")
+	add("kernelspec "+KernelName, checkKernelspec(kj), kj, "run `make kernel` (or `make kernel KERNEL_SCOPE=user`)")
+
+	add("warm build cache", l.checkWarm(), "opticslib and its dependencies compiled for cells", "run `make kernel`")
+	return cs
+}
+
+func checkKernelspec(path string) error {
+	b, err := os.ReadFile(path)
+	if err != nil {
+		return err
+	}
+	var spec kernelspec
+	if err := json.Unmarshal(b, &spec); err != nil {
+		return fmt.Errorf("%s: %w", path, err)
+	}
+	if len(spec.Argv) == 0 {
+		return fmt.Errorf("%s: empty argv", path)
+	}
+	if _, err := os.Stat(spec.Argv[0]); err != nil {
+		return fmt.Errorf("%s launches %s, which is missing", path, spec.Argv[0])
+	}
+	return nil
+}
+
+// checkWarm asks the go command, in a cell module with the kernel's
+// environment, whether every importable package is up to date in the build
+// cache.
+func (l Layout) checkWarm() error {
+	dir, err := os.MkdirTemp("", "beamnote-doctor-")
+	if err != nil {
+		return err
+	}
+	defer os.RemoveAll(dir)
+	env, err := CellModule(l, dir, io.Discard)
+	if err != nil {
+		return err
+	}
+	pkgs, err := ImportablePackages(l)
+	if err != nil {
+		return err
+	}
+	cmd := exec.Command(l.shimPath(), append([]string{"list", "-f", "{{if .Stale}}{{.ImportPath}}: {{.StaleReason}}{{end}}"}, pkgs...)...)
+	cmd.Dir = dir
+	cmd.Env = environ(env)
+	out, err := cmd.Output()
+	if err != nil {
+		return fmt.Errorf("go list in a cell module: %w", err)
+	}
+	if s := strings.TrimSpace(string(out)); s != "" {
+		return fmt.Errorf("not in the build cache: %s", firstLine(s))
+	}
+	return nil
+}
+
+// WriteReport prints the doctor's checks, one per line, with fixes, and
+// returns whether all passed.
+func WriteReport(w io.Writer, cs []Check) bool {
+	ok := true
+	for _, c := range cs {
+		mark := "ok     "
+		if !c.OK {
+			mark = "MISSING"
+			ok = false
+		}
+		fmt.Fprintf(w, "%s  %-32s %s\n", mark, c.Name, c.Detail)
+		if !c.OK {
+			fmt.Fprintf(w, "         fix: %s\n", c.Fix)
+		}
+	}
+	return ok
+}

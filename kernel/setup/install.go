@@ -1,0 +1,193 @@
+package setup
+
+import (
+	"encoding/json"
+	"fmt"
+	"io"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"regexp"
+	"strconv"
+	"strings"
+
+	"github.com/beamnote/beamnote/kernel/internal/atomicfile"
+)
+
+// Pinned tools, built from the module cache at the versions go.mod requires.
+const (
+	gonbPkg      = "github.com/janpfeifer/gonb"
+	goimportsPkg = "golang.org/x/tools/cmd/goimports"
+)
+
+// MinGo is the oldest Go release the checkout builds with (go.mod's go line).
+const MinGo = "1.26"
+
+// InstallOptions selects where the kernelspec goes.
+type InstallOptions struct {
+	// User installs the kernelspec into the per-user Jupyter data directory
+	// (see [UserJupyterData]) instead of the project-local one.
+	User bool
+	// SkipWarm leaves the build cache alone.
+	SkipWarm bool
+}
+
+// Install builds gonb and goimports at their pinned versions, writes the go
+// wrapper and the kernelspec, and warms the build cache. Progress goes to log.
+// It returns the kernelspec directory.
+func Install(l Layout, opt InstallOptions, log io.Writer) (string, error) {
+	if err := CheckGoVersion(l); err != nil {
+		return "", err
+	}
+	fmt.Fprintf(log, "beamnote: downloading modules named in go.mod (once; later runs need no network)\n")
+	if err := l.run(log, l.Root, nil, l.RealGo, "mod", "download"); err != nil {
+		return "", err
+	}
+	fmt.Fprintf(log, "beamnote: building gonb and goimports at the versions pinned in go.mod\n")
+	if err := os.MkdirAll(l.ShimDir(), 0o755); err != nil {
+		return "", err
+	}
+	if err := l.run(log, l.Root, nil, l.RealGo, "build", "-o", l.Bin()+string(os.PathSeparator), gonbPkg, goimportsPkg); err != nil {
+		return "", err
+	}
+	if err := atomicfile.Write(l.shimPath(), l.shimScript(), 0o755); err != nil {
+		return "", err
+	}
+	dataDir := l.JupyterData()
+	if opt.User {
+		d, err := UserJupyterData()
+		if err != nil {
+			return "", err
+		}
+		dataDir = d
+	}
+	kdir, err := l.WriteKernelspec(dataDir)
+	if err != nil {
+		return "", err
+	}
+	fmt.Fprintf(log, "beamnote: kernelspec %q written to %s\n", KernelName, kdir)
+	if !opt.SkipWarm {
+		fmt.Fprintf(log, "beamnote: warming the Go build cache for notebook cells\n")
+		if err := Warm(l, log); err != nil {
+			return kdir, err
+		}
+	}
+	return kdir, nil
+}
+
+// kernelspec is the kernel.json document (Jupyter client documentation,
+// "Kernel specs").
+type kernelspec struct {
+	Argv          []string          `json:"argv"`
+	DisplayName   string            `json:"display_name"`
+	Language      string            `json:"language"`
+	InterruptMode string            `json:"interrupt_mode"`
+	Env           map[string]string `json:"env"`
+	Metadata      map[string]any    `json:"metadata"`
+}
+
+// WriteKernelspec writes kernel.json and the logos under dataDir and returns
+// the kernelspec directory.
+func (l Layout) WriteKernelspec(dataDir string) (string, error) {
+	env, err := l.KernelEnv()
+	if err != nil {
+		return "", err
+	}
+	gonbVersion, err := l.PinnedVersion(gonbPkg)
+	if err != nil {
+		return "", err
+	}
+	spec := kernelspec{
+		Argv:          []string{filepath.Join(l.Bin(), "gonb"), "--kernel", "{connection_file}"},
+		DisplayName:   DisplayName,
+		Language:      "go",
+		InterruptMode: "message",
+		Env:           env,
+		Metadata: map[string]any{
+			"beamnote": map[string]string{"root": l.Root, "gonb": gonbVersion},
+		},
+	}
+	b, err := json.MarshalIndent(spec, "", "  ")
+	if err != nil {
+		return "", err
+	}
+	kdir := KernelDir(dataDir)
+	if err := os.MkdirAll(kdir, 0o755); err != nil {
+		return "", err
+	}
+	files := []struct {
+		name string
+		data []byte
+	}{
+		{"kernel.json", append(b, '\n')},
+		{"logo-svg.svg", []byte(LogoSVG)},
+		{"logo-32x32.png", LogoPNG(32)},
+		{"logo-64x64.png", LogoPNG(64)},
+	}
+	for _, f := range files {
+		if err := atomicfile.Write(filepath.Join(kdir, f.name), f.data, 0o644); err != nil {
+			return "", err
+		}
+	}
+	return kdir, nil
+}
+
+// PinnedVersion returns the version of module mod that the checkout's go.mod
+// selects.
+func (l Layout) PinnedVersion(mod string) (string, error) {
+	out, err := l.output(l.Root, l.RealGo, "list", "-m", "-f", "{{.Version}}", mod)
+	if err != nil {
+		return "", err
+	}
+	return strings.TrimSpace(out), nil
+}
+
+var goVersionRE = regexp.MustCompile(`go(\d+)\.(\d+)`)
+
+// CheckGoVersion reports an error if the go command is older than [MinGo].
+func CheckGoVersion(l Layout) error {
+	out, err := l.output("", l.RealGo, "env", "GOVERSION")
+	if err != nil {
+		return err
+	}
+	m := goVersionRE.FindStringSubmatch(out)
+	if m == nil {
+		return fmt.Errorf("setup: cannot read the Go version from %q", strings.TrimSpace(out))
+	}
+	major, _ := strconv.Atoi(m[1])
+	minor, _ := strconv.Atoi(m[2])
+	wantMinor, _ := strconv.Atoi(strings.TrimPrefix(MinGo, "1."))
+	if major < 1 || (major == 1 && minor < wantMinor) {
+		return fmt.Errorf("setup: %s is %s; beamnote needs Go %s or newer (https://go.dev/dl)", l.RealGo, strings.TrimSpace(out), MinGo)
+	}
+	return nil
+}
+
+// run runs a command in dir with extra environment, copying its output to log.
+func (l Layout) run(log io.Writer, dir string, env map[string]string, name string, args ...string) error {
+	cmd := exec.Command(name, args...)
+	cmd.Dir = dir
+	if env != nil {
+		cmd.Env = environ(env)
+	}
+	cmd.Stdout, cmd.Stderr = log, log
+	if err := cmd.Run(); err != nil {
+		return fmt.Errorf("setup: %s (in %s): %w", strings.Join(cmd.Args, " "), dir, err)
+	}
+	return nil
+}
+
+// output runs a command and returns its standard output.
+func (l Layout) output(dir string, name string, args ...string) (string, error) {
+	cmd := exec.Command(name, args...)
+	cmd.Dir = dir
+	out, err := cmd.Output()
+	if err != nil {
+		msg := ""
+		if ee, ok := err.(*exec.ExitError); ok {
+			msg = ": " + strings.TrimSpace(string(ee.Stderr))
+		}
+		return "", fmt.Errorf("setup: %s: %w%s", strings.Join(cmd.Args, " "), err, msg)
+	}
+	return string(out), nil
+}

@@ -1,0 +1,179 @@
+package setup
+
+import (
+	"bytes"
+	"encoding/json"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strings"
+)
+
+// FigureTag is the cell tag (cell metadata "tags") that marks a code cell
+// whose executed outputs must include an image/svg+xml figure.
+const FigureTag = "figure"
+
+// Notebook is the part of an nbformat 4 document that the checks read.
+type Notebook struct {
+	Cells []Cell `json:"cells"`
+}
+
+// Cell is one notebook cell.
+type Cell struct {
+	CellType string          `json:"cell_type"`
+	Source   json.RawMessage `json:"source"` // a string or a list of strings
+	Metadata struct {
+		Tags []string `json:"tags"`
+	} `json:"metadata"`
+	Outputs []Output `json:"outputs"`
+}
+
+// Output is one cell output.
+type Output struct {
+	OutputType string                     `json:"output_type"`
+	Name       string                     `json:"name"` // stream name
+	Text       json.RawMessage            `json:"text"`
+	Data       map[string]json.RawMessage `json:"data"`
+	EName      string                     `json:"ename"`
+	EValue     string                     `json:"evalue"`
+}
+
+// multiline decodes nbformat's "string or list of strings".
+func multiline(raw json.RawMessage) string {
+	if len(raw) == 0 {
+		return ""
+	}
+	var s string
+	if json.Unmarshal(raw, &s) == nil {
+		return s
+	}
+	var parts []string
+	if json.Unmarshal(raw, &parts) == nil {
+		return strings.Join(parts, "")
+	}
+	return string(raw)
+}
+
+// crashRE matches what a cell program that panicked, was killed or called
+// os.Exit with a nonzero code leaves on its streams: gonb reports the cell as
+// done and nbconvert exits 0, so the outputs are the only evidence.
+var crashRE = regexp.MustCompile(`(?m)^(panic: |fatal error: |exit status [1-9]|signal: )`)
+
+// CheckExecuted returns one problem per failing cell of an executed notebook:
+// an error output, a crash on a stream, or a cell tagged [FigureTag] without
+// an image/svg+xml output. A notebook with no figure at all is a problem too.
+func CheckExecuted(nb Notebook) []string {
+	var problems []string
+	figures := 0
+	for i, c := range nb.Cells {
+		if c.CellType != "code" {
+			continue
+		}
+		where := fmt.Sprintf("cell %d (%s)", i, firstLine(multiline(c.Source)))
+		hasSVG := false
+		for _, o := range c.Outputs {
+			switch o.OutputType {
+			case "error":
+				problems = append(problems, fmt.Sprintf("%s: error %s: %s", where, o.EName, o.EValue))
+			case "stream":
+				if m := crashRE.FindString(multiline(o.Text)); m != "" {
+					problems = append(problems, fmt.Sprintf("%s: the cell program crashed (%q on %s)", where, strings.TrimSpace(m), o.Name))
+				}
+			case "display_data", "execute_result":
+				if _, ok := o.Data["image/svg+xml"]; ok {
+					hasSVG = true
+				}
+			}
+		}
+		if hasSVG {
+			figures++
+		}
+		if hasTag(c.Metadata.Tags, FigureTag) && !hasSVG {
+			problems = append(problems, fmt.Sprintf("%s: tagged %q but has no image/svg+xml output", where, FigureTag))
+		}
+	}
+	if figures == 0 {
+		problems = append(problems, "no cell produced an image/svg+xml figure")
+	}
+	return problems
+}
+
+func hasTag(tags []string, t string) bool {
+	for _, x := range tags {
+		if x == t {
+			return true
+		}
+	}
+	return false
+}
+
+func firstLine(s string) string {
+	s = strings.TrimSpace(s)
+	if i := strings.IndexByte(s, '\n'); i >= 0 {
+		s = s[:i]
+	}
+	if len(s) > 60 {
+		s = s[:57] + "..."
+	}
+	return s
+}
+
+// ExecuteNotebooks runs each notebook headless with the beamnote kernel
+// (jupyter nbconvert --execute), writes the executed notebook and its HTML
+// export under outDir, and checks both: [CheckExecuted] on the notebook, and
+// an inline <svg> figure in the HTML. It returns an error listing every
+// problem in every notebook.
+func (l Layout) ExecuteNotebooks(paths []string, outDir string, user bool, log io.Writer) error {
+	jup := Jupyter()
+	if jup == "" {
+		return fmt.Errorf("setup: jupyter not found; run kernel/install-deps.sh (Debian/Ubuntu) or see README")
+	}
+	if len(paths) == 0 {
+		return fmt.Errorf("setup: no notebooks to execute")
+	}
+	if err := os.MkdirAll(outDir, 0o755); err != nil {
+		return err
+	}
+	env := l.JupyterEnv(user)
+	env["BEAMNOTE_HEADLESS"] = "1"
+	var all []string
+	for _, p := range paths {
+		name := strings.TrimSuffix(filepath.Base(p), ".ipynb")
+		fmt.Fprintf(log, "beamnote: executing %s\n", p)
+		if err := l.run(log, l.Root, env, jup, "nbconvert", "--to", "notebook", "--execute",
+			"--ExecutePreprocessor.kernel_name="+KernelName,
+			"--ExecutePreprocessor.timeout=600",
+			"--output-dir", outDir, "--output", name, p); err != nil {
+			all = append(all, fmt.Sprintf("%s: %v", p, err))
+			continue
+		}
+		executed := filepath.Join(outDir, name+".ipynb")
+		b, err := os.ReadFile(executed)
+		if err != nil {
+			all = append(all, fmt.Sprintf("%s: %v", p, err))
+			continue
+		}
+		var nb Notebook
+		if err := json.Unmarshal(b, &nb); err != nil {
+			all = append(all, fmt.Sprintf("%s: executed notebook is not JSON: %v", p, err))
+			continue
+		}
+		for _, prob := range CheckExecuted(nb) {
+			all = append(all, p+": "+prob)
+		}
+		if err := l.run(log, l.Root, env, jup, "nbconvert", "--to", "html", "--output-dir", outDir, executed); err != nil {
+			all = append(all, fmt.Sprintf("%s: HTML export: %v", p, err))
+			continue
+		}
+		html, err := os.ReadFile(filepath.Join(outDir, name+".html"))
+		if err != nil || !bytes.Contains(html, []byte("<svg")) {
+			all = append(all, fmt.Sprintf("%s: the HTML export shows no inline SVG figure", p))
+		}
+	}
+	if len(all) > 0 {
+		return fmt.Errorf("setup: notebook checks failed:\n  %s", strings.Join(all, "\n  "))
+	}
+	return nil
+}

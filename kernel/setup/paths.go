@@ -1,0 +1,169 @@
+package setup
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"sort"
+	"strings"
+)
+
+// ModulePath is the module path of the beamnote checkout that cells import.
+const ModulePath = "github.com/beamnote/beamnote"
+
+// KernelName is the kernelspec name, as used in notebook metadata
+// ("kernelspec": {"name": "beamnote"}).
+const KernelName = "beamnote"
+
+// DisplayName is the name Jupyter shows for the kernel.
+const DisplayName = "beamnote · Go optics"
+
+// Layout holds the absolute paths that set-up reads and writes.
+type Layout struct {
+	Root   string // the checkout (directory holding go.mod of ModulePath)
+	State  string // project-local state, Root/.beamnote by default
+	RealGo string // absolute path of the go command used to build and run cells
+}
+
+// Bin is the directory of the tools built at the pinned versions.
+func (l Layout) Bin() string { return filepath.Join(l.State, "bin") }
+
+// ShimDir is the directory holding the go wrapper; it comes first on the
+// kernel's PATH.
+func (l Layout) ShimDir() string { return filepath.Join(l.State, "bin", "shim") }
+
+// JupyterData is the project-local Jupyter data directory (JUPYTER_DATA_DIR).
+func (l Layout) JupyterData() string { return filepath.Join(l.State, "jupyter") }
+
+// KernelDir returns the kernelspec directory below a Jupyter data directory.
+func KernelDir(dataDir string) string { return filepath.Join(dataDir, "kernels", KernelName) }
+
+// UserJupyterData is the per-user Jupyter data directory on this system:
+// $JUPYTER_DATA_DIR if set, else ~/.local/share/jupyter (Linux) or
+// ~/Library/Jupyter (macOS).
+func UserJupyterData() (string, error) {
+	if d := os.Getenv("JUPYTER_DATA_DIR"); d != "" {
+		return d, nil
+	}
+	home, err := os.UserHomeDir()
+	if err != nil {
+		return "", fmt.Errorf("setup: no home directory for a per-user kernelspec: %w", err)
+	}
+	if _, err := os.Stat("/System/Library"); err == nil {
+		return filepath.Join(home, "Library", "Jupyter"), nil
+	}
+	return filepath.Join(home, ".local", "share", "jupyter"), nil
+}
+
+// FindLayout locates the checkout from dir (walking up to the go.mod whose
+// module is ModulePath) and the go command on PATH.
+func FindLayout(dir string) (Layout, error) {
+	abs, err := filepath.Abs(dir)
+	if err != nil {
+		return Layout{}, err
+	}
+	root := ""
+	for d := abs; ; d = filepath.Dir(d) {
+		b, err := os.ReadFile(filepath.Join(d, "go.mod"))
+		if err == nil && modulePathOf(b) == ModulePath {
+			root = d
+			break
+		}
+		if filepath.Dir(d) == d {
+			break
+		}
+	}
+	if root == "" {
+		return Layout{}, fmt.Errorf("setup: no go.mod of module %s at or above %s", ModulePath, abs)
+	}
+	goCmd, err := exec.LookPath("go")
+	if err != nil {
+		return Layout{}, fmt.Errorf("setup: the go command is not on PATH (install Go 1.26 from https://go.dev/dl): %w", err)
+	}
+	goCmd, err = filepath.Abs(goCmd)
+	if err != nil {
+		return Layout{}, err
+	}
+	// Resolve a go found through our own shim back to the real command.
+	if b, err := os.ReadFile(goCmd); err == nil && bytes.HasPrefix(b, []byte("#!")) {
+		if real := shimRealGo(b); real != "" {
+			goCmd = real
+		}
+	}
+	return Layout{Root: root, State: filepath.Join(root, ".beamnote"), RealGo: goCmd}, nil
+}
+
+func modulePathOf(gomod []byte) string {
+	for _, line := range strings.Split(string(gomod), "\n") {
+		f := strings.Fields(line)
+		if len(f) == 2 && f[0] == "module" {
+			return strings.Trim(f[1], `"`)
+		}
+	}
+	return ""
+}
+
+// goEnv returns `go env NAME` for the given names.
+func (l Layout) goEnv(names ...string) (map[string]string, error) {
+	out, err := exec.Command(l.RealGo, append([]string{"env"}, names...)...).Output()
+	if err != nil {
+		return nil, fmt.Errorf("setup: %s env: %w", l.RealGo, err)
+	}
+	lines := strings.Split(strings.TrimRight(string(out), "\n"), "\n")
+	if len(lines) != len(names) {
+		return nil, errors.New("setup: unexpected output of go env")
+	}
+	m := make(map[string]string, len(names))
+	for i, n := range names {
+		m[n] = lines[i]
+	}
+	return m, nil
+}
+
+// CellGoFlags are the build flags of every cell (and of [Warm], which must
+// match them for the build cache to hit). -mod=mod lets "go get" and
+// "go build" update the cell's go.mod; -ldflags=-w omits DWARF debug
+// information, which shortens linking of plotting cells (stack traces still
+// carry file and line from the runtime's own tables).
+const CellGoFlags = "-mod=mod -ldflags=-w"
+
+// KernelEnv is the environment written into kernel.json and used by [Warm]
+// and by the latency measurement, so that all three build cells alike.
+func (l Layout) KernelEnv() (map[string]string, error) {
+	ge, err := l.goEnv("GOCACHE", "GOMODCACHE", "GOPATH")
+	if err != nil {
+		return nil, err
+	}
+	path := strings.Join([]string{
+		l.ShimDir(), l.Bin(), filepath.Dir(l.RealGo),
+		"/usr/local/sbin", "/usr/local/bin", "/usr/sbin", "/usr/bin", "/sbin", "/bin",
+	}, string(os.PathListSeparator))
+	return map[string]string{
+		"PATH":          path,
+		"GOPROXY":       "off",
+		"GOFLAGS":       CellGoFlags,
+		"GOTOOLCHAIN":   "local",
+		"GOCACHE":       ge["GOCACHE"],
+		"GOMODCACHE":    ge["GOMODCACHE"],
+		"GOPATH":        ge["GOPATH"],
+		"BEAMNOTE_ROOT": l.Root,
+	}, nil
+}
+
+// environ turns an environment map into os/exec form over the current
+// environment, in sorted order.
+func environ(m map[string]string) []string {
+	env := os.Environ()
+	keys := make([]string, 0, len(m))
+	for k := range m {
+		keys = append(keys, k)
+	}
+	sort.Strings(keys)
+	for _, k := range keys {
+		env = append(env, k+"="+m[k])
+	}
+	return env
+}

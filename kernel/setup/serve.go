@@ -1,0 +1,71 @@
+package setup
+
+import (
+	"crypto/rand"
+	"encoding/hex"
+	"fmt"
+	"net"
+	"path/filepath"
+	"strconv"
+)
+
+// ServeOptions configures the notebook server.
+type ServeOptions struct {
+	IP          string // address to bind; default 127.0.0.1
+	Port        int    // default 8888
+	Token       string // default: 24 random bytes, hex encoded
+	AllowRemote bool   // required to bind an address other than loopback
+	User        bool   // the kernelspec was installed for the user
+	Dir         string // directory served; default <checkout>/notebooks
+}
+
+// ServeCommand validates opt and returns the jupyter command line and its
+// environment, and the URL to open. The server never binds a non-loopback
+// address unless AllowRemote is set, and never runs without a token.
+func (l Layout) ServeCommand(opt ServeOptions) (argv []string, env map[string]string, url string, err error) {
+	if opt.IP == "" {
+		opt.IP = "127.0.0.1"
+	}
+	if opt.Port == 0 {
+		opt.Port = 8888
+	}
+	if opt.Port < 1 || opt.Port > 65535 {
+		return nil, nil, "", fmt.Errorf("setup: notebook port %d: must be 1–65535", opt.Port)
+	}
+	ip := net.ParseIP(opt.IP)
+	if ip == nil {
+		return nil, nil, "", fmt.Errorf("setup: notebook address %q: not an IP address", opt.IP)
+	}
+	if !ip.IsLoopback() && !opt.AllowRemote {
+		return nil, nil, "", fmt.Errorf("setup: notebook address %s is not loopback; other machines could reach the kernel, "+
+			"which runs any code. Set BEAMNOTE_ALLOW_REMOTE=1 to bind it anyway", opt.IP)
+	}
+	if opt.Token == "" {
+		b := make([]byte, 24)
+		if _, err := rand.Read(b); err != nil {
+			return nil, nil, "", fmt.Errorf("setup: making a notebook token: %w", err)
+		}
+		opt.Token = hex.EncodeToString(b)
+	}
+	if opt.Dir == "" {
+		opt.Dir = filepath.Join(l.Root, "notebooks")
+	}
+	jup := Jupyter()
+	if jup == "" {
+		return nil, nil, "", fmt.Errorf("setup: jupyter not found; run `make notebook` (Debian/Ubuntu) or install Jupyter Notebook 6 and nbconvert")
+	}
+	argv = []string{jup, "notebook",
+		"--no-browser",
+		"--ip=" + opt.IP,
+		"--port=" + strconv.Itoa(opt.Port),
+		"--port-retries=0",
+		"--notebook-dir=" + opt.Dir,
+		"--NotebookApp.token=" + opt.Token,
+	}
+	host := opt.IP
+	if ip.To4() == nil {
+		host = "[" + host + "]"
+	}
+	url = fmt.Sprintf("http://%s:%d/tree?token=%s", host, opt.Port, opt.Token)
+	return argv, l.JupyterEnv(opt.User), url, nil
+}
