@@ -109,15 +109,21 @@ func hasTag(tags []string, t string) bool {
 	return false
 }
 
+// firstLine returns the first line of a cell that says what it does,
+// skipping blank lines and gonb's "%%" marker, shortened to 60 bytes.
 func firstLine(s string) string {
-	s = strings.TrimSpace(s)
-	if i := strings.IndexByte(s, '\n'); i >= 0 {
-		s = s[:i]
+	line := ""
+	for _, l := range strings.Split(s, "\n") {
+		l = strings.TrimSpace(l)
+		if l != "" && l != "%%" {
+			line = l
+			break
+		}
 	}
-	if len(s) > 60 {
-		s = s[:57] + "..."
+	if len(line) > 60 {
+		line = line[:57] + "..."
 	}
-	return s
+	return line
 }
 
 // ExecuteNotebooks runs each notebook headless with the beamnote kernel

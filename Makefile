@@ -1,0 +1,62 @@
+# beamnote: the two commands of the README are `make notebook` and `make test`.
+# Both do all set-up on a fresh Debian/Ubuntu machine that has only Go.
+#
+#   make notebook        install what is missing, build and register the kernel, serve notebooks/
+#   make test            go vet, go test, and every notebook executed headless with the kernel
+#   make kernel          build gonb/goimports at the pinned versions, write the kernelspec, warm the cache
+#   make doctor          list what is missing, with the fix for each
+#   make bench           Go benchmarks of opticslib
+#   make latency         measure notebook cell latency (see DEVELOPERS.md)
+#
+# KERNEL_SCOPE=user installs the kernelspec for the user (~/.local/share/jupyter)
+# instead of the project-local .beamnote/jupyter. NOTEBOOK_IP / NOTEBOOK_PORT
+# choose the address (loopback only unless BEAMNOTE_ALLOW_REMOTE=1).
+
+GO ?= go
+KERNEL_SCOPE ?= project
+STATE := .beamnote
+BK := $(STATE)/bin/beamnote-kernel
+NOTEBOOKS := $(sort $(wildcard notebooks/*.ipynb))
+PYTHON ?= /usr/bin/python3
+
+ifeq ($(KERNEL_SCOPE),user)
+SCOPE_FLAG := -user
+endif
+
+.PHONY: notebook test deps kernel doctor bench latency vet gotest nbtest clean
+
+notebook: kernel
+	$(BK) serve $(SCOPE_FLAG)
+
+test: vet gotest nbtest
+
+deps:
+	@kernel/install-deps.sh
+
+$(BK): go.mod go.sum $(wildcard kernel/setup/*.go kernel/cmd/beamnote-kernel/*.go kernel/internal/*/*.go)
+	$(GO) build -o $@ ./kernel/cmd/beamnote-kernel
+
+kernel: deps $(BK)
+	$(BK) install $(SCOPE_FLAG)
+
+doctor: $(BK)
+	$(BK) doctor $(SCOPE_FLAG)
+
+vet:
+	$(GO) vet ./...
+
+gotest: deps
+	$(GO) test ./...
+
+nbtest: kernel
+	$(BK) test $(SCOPE_FLAG) $(NOTEBOOKS)
+
+bench:
+	$(GO) test -run '^$$' -bench . -benchmem ./opticslib/...
+
+latency: kernel
+	JUPYTER_DATA_DIR=$(CURDIR)/$(STATE)/jupyter JUPYTER_PATH=$(CURDIR)/$(STATE)/jupyter \
+		$(PYTHON) kernel/latency.py
+
+clean:
+	rm -rf $(STATE) build

@@ -1,0 +1,109 @@
+#!/usr/bin/python3
+"""Measure beamnote kernel cell latency (wall time from execute_request to idle).
+
+Run through `make latency` (it sets the project-local Jupyter data dir).
+Prints, for a freshly started kernel:
+  first    the first cell of the kernel: a plotting cell (what a user runs first)
+  trivial  median of N warm trivial cells
+  plot     median of N warm plotting cells (beam caustic through a system, SVG shown)
+and writes the same as JSON to build/latency.json. Repeat with REPEAT=3 to see spread.
+
+Uses only jupyter_client from Debian's packages.
+"""
+import json
+import os
+import statistics
+import sys
+import time
+
+from jupyter_client.manager import start_new_kernel
+
+N = int(os.environ.get("N", "10"))
+REPEAT = int(os.environ.get("REPEAT", "1"))
+
+TRIVIAL = """%%
+fmt.Println(1 + 1)
+"""
+
+PLOT = """import (
+	"github.com/beamnote/beamnote/kernel/nb"
+	"github.com/beamnote/beamnote/opticslib/beam"
+	"github.com/beamnote/beamnote/opticslib/optplot"
+	"github.com/beamnote/beamnote/opticslib/paraxial"
+	. "github.com/beamnote/beamnote/opticslib/units"
+	"gonum.org/v1/plot/vg"
+)
+
+%%
+sys, err := paraxial.NewBuilder().Space(50*Millimeter).ThinLens(-25*Millimeter).Label("L1").
+	Space(SPACING).ThinLens(100*Millimeter).Label("L2").Space(300*Millimeter).Build()
+if err != nil { panic(err) }
+in, err := beam.FromWaist(0.4*Millimeter, 0, 780*Nanometer, 1)
+if err != nil { panic(err) }
+c, err := beam.Sample(sys, in, 400)
+if err != nil { panic(err) }
+p, err := optplot.Caustic(c, sys)
+if err != nil { panic(err) }
+svg, err := optplot.SVG(p, 16*vg.Centimeter, 9*vg.Centimeter)
+if err != nil { panic(err) }
+nb.SVG(svg, "latency probe caustic")
+"""
+
+
+def run_cell(kc, code):
+    t0 = time.perf_counter()
+    msg_id = kc.execute(code)
+    errors = []
+    while True:
+        msg = kc.get_iopub_msg(timeout=600)
+        if msg["parent_header"].get("msg_id") != msg_id:
+            continue
+        t = msg["msg_type"]
+        if t == "error":
+            errors.append(msg["content"].get("evalue", ""))
+        if t == "stream" and msg["content"]["name"] == "stderr":
+            text = msg["content"]["text"]
+            if "panic:" in text or "exit status" in text:
+                errors.append(text)
+        if t == "status" and msg["content"]["execution_state"] == "idle":
+            break
+    dt = time.perf_counter() - t0
+    if errors:
+        sys.exit("cell failed: %s" % "\n".join(errors))
+    return dt
+
+
+def one_run():
+    km, kc = start_new_kernel(kernel_name="beamnote")
+    try:
+        first = run_cell(kc, PLOT.replace("SPACING", "75*Millimeter"))
+        trivial = [run_cell(kc, TRIVIAL) for _ in range(N)]
+        plot = [run_cell(kc, PLOT.replace("SPACING", "%d*Millimeter" % (70 + i))) for i in range(N)]
+    finally:
+        kc.stop_channels()
+        km.shutdown_kernel(now=True)
+    return {
+        "first_plot_cell_s": round(first, 3),
+        "warm_trivial_median_s": round(statistics.median(trivial), 3),
+        "warm_plot_median_s": round(statistics.median(plot), 3),
+        "warm_plot_min_s": round(min(plot), 3),
+        "warm_plot_max_s": round(max(plot), 3),
+        "n": N,
+    }
+
+
+def main():
+    runs = [one_run() for _ in range(REPEAT)]
+    for i, r in enumerate(runs):
+        print("run %d: first plotting cell %.3f s | warm trivial median %.3f s | "
+              "warm plotting median %.3f s (min %.3f, max %.3f, n=%d) | first/warm %.2f"
+              % (i + 1, r["first_plot_cell_s"], r["warm_trivial_median_s"], r["warm_plot_median_s"],
+                 r["warm_plot_min_s"], r["warm_plot_max_s"], r["n"],
+                 r["first_plot_cell_s"] / r["warm_plot_median_s"]))
+    os.makedirs("build", exist_ok=True)
+    with open("build/latency.json", "w") as f:
+        json.dump(runs, f, indent=2)
+
+
+if __name__ == "__main__":
+    main()

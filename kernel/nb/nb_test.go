@@ -1,0 +1,80 @@
+package nb
+
+import (
+	"bytes"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// Plain-text fallbacks and HTML fragments of the display package. The HTML
+// escaping follows the HTML5 specification's rules for text content
+// (html.EscapeString); nothing here is physics.
+
+func capture(t *testing.T, f func() error) string {
+	t.Helper()
+	var b bytes.Buffer
+	old := Out
+	Out = &b
+	defer func() { Out = old }()
+	if err := f(); err != nil {
+		t.Fatal(err)
+	}
+	return b.String()
+}
+
+func TestTableText(t *testing.T) {
+	got := capture(t, func() error {
+		return Table("Waists", []string{"element", "w0 (µm)", "z (mm)"}, [][]string{
+			{"L1", "412.0", "0.0"},
+			{"L2", "35.2"},
+		})
+	})
+	want := "Waists\n" +
+		"element  w0 (µm)  z (mm)\n" +
+		"-------  -------  ------\n" +
+		"L1       412.0    0.0\n" +
+		"L2       35.2     \n"
+	if got != want {
+		t.Errorf("Table text =\n%q\nwant\n%q", got, want)
+	}
+}
+
+func TestTableHTMLEscapes(t *testing.T) {
+	got := tableHTML("a<b", []string{"x&y"}, [][]string{{"<script>"}})
+	for _, want := range []string{"<caption>a&lt;b</caption>", "<th>x&amp;y</th>", "<td>&lt;script&gt;</td>"} {
+		if !strings.Contains(got, want) {
+			t.Errorf("tableHTML = %s, want it to contain %s", got, want)
+		}
+	}
+}
+
+func TestTableRowTooLong(t *testing.T) {
+	if err := Table("t", []string{"a"}, [][]string{{"1", "2"}}); err == nil {
+		t.Error("Table with a row longer than the header: no error")
+	}
+}
+
+func TestSVGFallbackWritesFile(t *testing.T) {
+	dir := t.TempDir()
+	t.Setenv("BEAMNOTE_FIGURE_DIR", dir)
+	svg := []byte(`<?xml version="1.0"?><svg xmlns="http://www.w3.org/2000/svg"></svg>`)
+	got := capture(t, func() error { return SVG(svg, "Caustic: expander 3×") })
+	if !strings.Contains(got, "[figure: Caustic: expander 3× (") {
+		t.Errorf("SVG fallback printed %q", got)
+	}
+	b, err := os.ReadFile(filepath.Join(dir, "caustic-expander-3.svg"))
+	if err != nil || !bytes.Equal(b, svg) {
+		t.Errorf("figure file: %v, content %q", err, b)
+	}
+	if err := SVG(nil, "empty"); err == nil {
+		t.Error("SVG(nil): no error")
+	}
+}
+
+func TestStripXMLHeader(t *testing.T) {
+	if got := stripXMLHeader([]byte("<?xml version=\"1.0\"?>\n<svg/>")); got != "<svg/>" {
+		t.Errorf("stripXMLHeader = %q", got)
+	}
+}

@@ -1,0 +1,186 @@
+package setup
+
+import (
+	"bytes"
+	"encoding/json"
+	"image/png"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// These tests check the kernel plumbing against the formats it must speak:
+// nbformat 4 (Jupyter's notebook format documentation, "The Notebook file
+// format"), the kernelspec layout (jupyter_client documentation, "Kernel
+// specs") and PNG (image/png). No physics here.
+
+func readNotebook(t *testing.T, name string) Notebook {
+	t.Helper()
+	b, err := os.ReadFile(filepath.Join("..", "..", "testdata", "notebooks", name))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var nb Notebook
+	if err := json.Unmarshal(b, &nb); err != nil {
+		t.Fatal(err)
+	}
+	return nb
+}
+
+func TestCheckExecuted(t *testing.T) {
+	if p := CheckExecuted(readNotebook(t, "executed-good.ipynb")); len(p) != 0 {
+		t.Errorf("CheckExecuted(good) = %q, want no problems", p)
+	}
+	p := CheckExecuted(readNotebook(t, "executed-bad.ipynb"))
+	for _, want := range []string{
+		`cell 0 (nb.SVG(nil, "x")): tagged "figure" but has no image/svg+xml output`,
+		`cell 1 (var m map[string]int): the cell program crashed ("panic:`,
+		`cell 2 (os.Exit(3)): the cell program crashed ("exit status 3"`,
+		`cell 3 (undefined()): error ERROR: undefined: undefined`,
+		`no cell produced an image/svg+xml figure`,
+	} {
+		found := false
+		for _, got := range p {
+			if strings.HasPrefix(got, want) || strings.Contains(got, want) {
+				found = true
+			}
+		}
+		if !found {
+			t.Errorf("CheckExecuted(bad) = %q, want a problem like %q", p, want)
+		}
+	}
+	if len(p) != 5 {
+		t.Errorf("CheckExecuted(bad) gave %d problems, want 5: %q", len(p), p)
+	}
+}
+
+func TestMultiline(t *testing.T) {
+	for _, test := range []struct{ raw, want string }{
+		{`"a\nb"`, "a\nb"},
+		{`["a\n", "b"]`, "a\nb"},
+		{``, ""},
+	} {
+		if got := multiline(json.RawMessage(test.raw)); got != test.want {
+			t.Errorf("multiline(%s) = %q, want %q", test.raw, got, test.want)
+		}
+	}
+}
+
+func TestServeCommandRefusesRemoteAndAlwaysHasToken(t *testing.T) {
+	if Jupyter() == "" {
+		t.Skip("no jupyter on this machine")
+	}
+	l := Layout{Root: "/r", State: "/r/.beamnote", RealGo: "/usr/local/go/bin/go"}
+	for _, test := range []struct {
+		opt    ServeOptions
+		wantOK bool
+	}{
+		{ServeOptions{}, true},
+		{ServeOptions{IP: "::1"}, true},
+		{ServeOptions{IP: "0.0.0.0"}, false},
+		{ServeOptions{IP: "192.168.1.20"}, false},
+		{ServeOptions{IP: "192.168.1.20", AllowRemote: true}, true},
+		{ServeOptions{IP: "localhost"}, false}, // not an IP address
+		{ServeOptions{Port: 70000}, false},
+	} {
+		argv, _, url, err := l.ServeCommand(test.opt)
+		if (err == nil) != test.wantOK {
+			t.Errorf("ServeCommand(%+v) error = %v, want ok %v", test.opt, err, test.wantOK)
+			continue
+		}
+		if err != nil {
+			continue
+		}
+		tok := ""
+		for _, a := range argv {
+			if v, ok := strings.CutPrefix(a, "--NotebookApp.token="); ok {
+				tok = v
+			}
+		}
+		if len(tok) != 48 || !strings.Contains(url, "token="+tok) {
+			t.Errorf("ServeCommand(%+v): token %q, url %q; want a 48-hex-digit token in the URL", test.opt, tok, url)
+		}
+	}
+}
+
+func TestShimMakesCellModule(t *testing.T) {
+	goCmd, err := exec.LookPath("go")
+	if err != nil {
+		t.Skip("no go command")
+	}
+	l, err := FindLayout(".")
+	if err != nil {
+		t.Fatal(err)
+	}
+	l.State = t.TempDir()
+	l.RealGo, _ = filepath.Abs(goCmd)
+	if err := os.MkdirAll(l.ShimDir(), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	script := l.shimScript()
+	if got := shimRealGo(script); got != l.RealGo {
+		t.Errorf("shimRealGo(script) = %q, want %q", got, l.RealGo)
+	}
+	if err := os.WriteFile(l.shimPath(), script, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	cell := t.TempDir()
+	cmd := exec.Command(l.shimPath(), "mod", "init", "gonb_test")
+	cmd.Dir = cell
+	cmd.Env = append(os.Environ(), "GONB_TMP_DIR="+cell, "GOFLAGS=", "GOPROXY=off")
+	if out, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("shim mod init: %v\n%s", err, out)
+	}
+	gomod, _ := os.ReadFile(filepath.Join(cell, "go.mod"))
+	for _, want := range []string{"require " + ModulePath + " v0.0.0", "replace " + ModulePath + " => " + l.Root} {
+		if !strings.Contains(string(gomod), want) {
+			t.Errorf("cell go.mod lacks %q:\n%s", want, gomod)
+		}
+	}
+	sum, _ := os.ReadFile(filepath.Join(cell, "go.sum"))
+	rootSum, _ := os.ReadFile(filepath.Join(l.Root, "go.sum"))
+	if !bytes.Equal(sum, rootSum) {
+		t.Errorf("cell go.sum differs from the checkout's")
+	}
+
+	// Outside gonb's directory the wrapper only forwards.
+	other := t.TempDir()
+	cmd = exec.Command(l.shimPath(), "mod", "init", "plain")
+	cmd.Dir = other
+	cmd.Env = append(os.Environ(), "GONB_TMP_DIR="+cell, "GOFLAGS=")
+	if out, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("shim mod init elsewhere: %v\n%s", err, out)
+	}
+	if gomod, _ := os.ReadFile(filepath.Join(other, "go.mod")); strings.Contains(string(gomod), "replace") {
+		t.Errorf("wrapper edited a module outside GONB_TMP_DIR:\n%s", gomod)
+	}
+}
+
+func TestLogoPNG(t *testing.T) {
+	for _, size := range []int{32, 64} {
+		img, err := png.Decode(bytes.NewReader(LogoPNG(size)))
+		if err != nil {
+			t.Errorf("LogoPNG(%d): %v", size, err)
+			continue
+		}
+		if b := img.Bounds(); b.Dx() != size || b.Dy() != size {
+			t.Errorf("LogoPNG(%d) is %v", size, b)
+		}
+	}
+	if !bytes.Equal(LogoPNG(32), LogoPNG(32)) {
+		t.Error("LogoPNG is not deterministic")
+	}
+}
+
+func TestShellQuote(t *testing.T) {
+	for _, test := range []struct{ in, want string }{
+		{"/usr/local/go/bin/go", "'/usr/local/go/bin/go'"},
+		{"/home/o'brien/go", `'/home/o'\''brien/go'`},
+	} {
+		if got := shellQuote(test.in); got != test.want {
+			t.Errorf("shellQuote(%q) = %s, want %s", test.in, got, test.want)
+		}
+	}
+}
