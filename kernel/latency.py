@@ -30,15 +30,15 @@ PLOT = """import (
 	"github.com/beamnote/beamnote/opticslib/beam"
 	"github.com/beamnote/beamnote/opticslib/optplot"
 	"github.com/beamnote/beamnote/opticslib/paraxial"
-	. "github.com/beamnote/beamnote/opticslib/units"
+	"github.com/beamnote/beamnote/opticslib/units"
 	"gonum.org/v1/plot/vg"
 )
 
 %%
-sys, err := paraxial.NewBuilder().Space(50*Millimeter).ThinLens(-25*Millimeter).Label("L1").
-	Space(SPACING).ThinLens(100*Millimeter).Label("L2").Space(300*Millimeter).Build()
+sys, err := paraxial.NewBuilder().Space(50*units.Millimeter).ThinLens(-25*units.Millimeter).Label("L1").
+	Space(SPACING).ThinLens(100*units.Millimeter).Label("L2").Space(300*units.Millimeter).Build()
 if err != nil { panic(err) }
-in, err := beam.FromWaist(0.4*Millimeter, 0, 780*Nanometer, 1)
+in, err := beam.FromWaist(0.4*units.Millimeter, 0, 780*units.Nanometer, 1)
 if err != nil { panic(err) }
 c, err := beam.Sample(sys, in, 400)
 if err != nil { panic(err) }
@@ -76,12 +76,12 @@ def run_cell(kc, code):
 def one_run():
     km, kc = start_new_kernel(kernel_name="beamnote")
     try:
-        first = run_cell(kc, PLOT.replace("SPACING", "75*Millimeter"))
+        first = run_cell(kc, PLOT.replace("SPACING", "75*units.Millimeter"))
         trivial = [run_cell(kc, TRIVIAL) for _ in range(N)]
-        plot = [run_cell(kc, PLOT.replace("SPACING", "%d*Millimeter" % (70 + i))) for i in range(N)]
+        plot = [run_cell(kc, PLOT.replace("SPACING", "%d*units.Millimeter" % (70 + i))) for i in range(N)]
     finally:
         kc.stop_channels()
-        km.shutdown_kernel(now=True)
+        km.shutdown_kernel(now=False)
     return {
         "first_plot_cell_s": round(first, 3),
         "warm_trivial_median_s": round(statistics.median(trivial), 3),

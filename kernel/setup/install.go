@@ -98,7 +98,11 @@ func (l Layout) WriteKernelspec(dataDir string) (string, error) {
 		return "", err
 	}
 	spec := kernelspec{
-		Argv:          []string{filepath.Join(l.Bin(), "gonb"), "--kernel", "{connection_file}"},
+		// gonb's own log (klog) goes to a file instead of the server's
+		// terminal, where it buried the URL and the cell errors.
+		Argv: []string{filepath.Join(l.Bin(), "gonb"), "--kernel", "{connection_file}",
+			"--logtostderr=false", "--stderrthreshold=FATAL",
+			"--log_file=" + l.KernelLog(), "--log_file_max_size=20"},
 		DisplayName:   DisplayName,
 		Language:      "go",
 		InterruptMode: "message",
@@ -112,6 +116,9 @@ func (l Layout) WriteKernelspec(dataDir string) (string, error) {
 		return "", err
 	}
 	kdir := KernelDir(dataDir)
+	if err := os.MkdirAll(filepath.Dir(l.KernelLog()), 0o755); err != nil {
+		return "", err
+	}
 	if err := os.MkdirAll(kdir, 0o755); err != nil {
 		return "", err
 	}

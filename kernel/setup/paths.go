@@ -35,6 +35,9 @@ func (l Layout) Bin() string { return filepath.Join(l.State, "bin") }
 // kernel's PATH.
 func (l Layout) ShimDir() string { return filepath.Join(l.State, "bin", "shim") }
 
+// KernelLog is the file that gonb's log goes to.
+func (l Layout) KernelLog() string { return filepath.Join(l.State, "logs", "gonb.log") }
+
 // JupyterData is the project-local Jupyter data directory (JUPYTER_DATA_DIR).
 func (l Layout) JupyterData() string { return filepath.Join(l.State, "jupyter") }
 

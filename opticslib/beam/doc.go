@@ -1,0 +1,63 @@
+// Package beam propagates fundamental (TEM₀₀) Gaussian beams through
+// paraxial optical systems with the complex beam parameter q and the ABCD
+// law.
+//
+// # Units
+//
+// Lengths are in metres (see package units), including the wavelength. The
+// wavelength stored in a [Gaussian] is the vacuum wavelength λ0; the
+// wavelength in a medium of refractive index n is λ = λ0/n. Angles are in
+// radians.
+//
+// # The q parameter and its sign convention
+//
+// For a field written with the propagation factor exp(−ikz) (H. Kogelnik &
+// T. Li, "Laser beams and resonators", Appl. Opt. 5, 1550–1567 (1966)), the
+// beam parameter is defined by
+//
+//	1/q = 1/R − i λ/(π w²),   λ = λ0/n
+//
+// and in a homogeneous medium
+//
+//	q = z + i zR,   zR = π w0² n/λ0
+//
+// where z is the signed distance from the waist to the plane (z > 0 past
+// the waist, where the beam diverges and R > 0) and zR is the Rayleigh
+// range. Im q = zR > 0 for every physical beam.
+//
+// # The ABCD law and refractive index
+//
+// With the un-reduced ray angles of package paraxial (det M = n1/n2), q as
+// defined above transforms directly as
+//
+//	q2 = (A q1 + B)/(C q1 + D)
+//
+// Derivation: in reduced form the ray vector is (y, nθ), the reduced matrix
+// is  = A, B̂ = B/n1, Ĉ = n2·C, D̂ = n2·D/n1 (det = 1), and the invariant
+// beam parameter is q̂ = q/n (A. E. Siegman, Lasers, 1986, ch. 20 [from
+// memory]). Substituting,
+//
+//	(Â q̂1 + B̂)/(Ĉ q̂1 + D̂) = (A q1 + B)/(n2 (C q1 + D)) = q2/n2
+//
+// so q/n obeys the reduced law exactly when q obeys the un-reduced one. A
+// planar interface n1 → n2 ([paraxial.PlanarInterface]) therefore maps q to
+// q·n2/n1: the radius w is unchanged, and zR and R both scale by n2/n1.
+//
+// # Gouy phase
+//
+// The on-axis Gouy phase relative to the waist is ψ = arctan(z/zR). Through
+// a general ABCD system it advances by −arg(A + B/q1) (Siegman, Lasers,
+// ch. 20 [from memory]); this is additive over cascaded elements, and the
+// package accumulates it element by element so that it is not reduced
+// modulo 2π.
+//
+// # Errors and panics
+//
+// Constructors ([FromWaist], [FromQ]) and the system functions ([At],
+// [Waists], [Sample], [SampleRange]) validate their input and return a
+// [*ParamError] or a sentinel error; they never panic on user data and never
+// return NaN or ±Inf in a result, except the documented +Inf radius of
+// curvature exactly at a waist. The methods of [Gaussian] are pure
+// arithmetic and follow IEEE-754 for a Gaussian that was not validated.
+// Nothing in the package modifies its arguments.
+package beam

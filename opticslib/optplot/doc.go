@@ -1,0 +1,34 @@
+// Package optplot draws beamnote results with gonum.org/v1/plot. It is the
+// only package of the library that imports gonum/plot; the physics packages
+// (units, paraxial, beam) do not depend on it.
+//
+// # Units
+//
+// Data arrive in metres (the library's internal unit) and are plotted in
+// millimetres on both axes, which suits bench-top optics; axis labels state
+// the unit.
+//
+// # Look
+//
+// The caustic plot draws the beam envelope ±w(z) as two lines over a pale
+// band, the optical axis as a thin dotted line, and each zero-thickness
+// element as a vertical bar at its position with a short label above it.
+// Thin lenses carry small end marks that open outwards for a converging
+// lens and inwards for a diverging one; refracting interfaces are plain
+// bars in a second colour. The palette (deep teal, warm ochre, muted plum
+// on white) is this package's own.
+//
+// # Determinism and globals
+//
+// Rendering the same input twice gives byte-identical SVG: the package
+// iterates only over slices, and gonum/plot's SVG back end writes numbers
+// with fixed precision. The package never modifies gonum/plot's
+// package-level defaults (plotter.Default*); every style is set on the
+// plotters it creates, so concurrent notebook cells do not interfere.
+//
+// # Errors and panics
+//
+// [Caustic] returns an error for empty or inconsistent data and for
+// non-finite values; [SVG] returns rendering errors. Nothing panics on user
+// data, and arguments are not modified.
+package optplot

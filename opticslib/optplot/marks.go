@@ -1,0 +1,189 @@
+package optplot
+
+import (
+	"errors"
+	"image/color"
+	"math"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/text"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+
+	"github.com/beamnote/beamnote/opticslib/paraxial"
+	"github.com/beamnote/beamnote/opticslib/units"
+)
+
+// Palette of the package (sRGB), chosen for calm contrast on white.
+var (
+	envelopeColor  = color.NRGBA{R: 0x2e, G: 0x5e, B: 0x6e, A: 0xff} // deep teal
+	bandColor      = color.NRGBA{R: 0x2e, G: 0x5e, B: 0x6e, A: 0x26} // the same, ~15 % opaque
+	axisColor      = color.NRGBA{R: 0x9a, G: 0x9a, B: 0x9a, A: 0xff} // neutral grey
+	lensColor      = color.NRGBA{R: 0xb0, G: 0x7a, B: 0x3a, A: 0xff} // warm ochre
+	interfaceColor = color.NRGBA{R: 0x78, G: 0x60, B: 0x8c, A: 0xff} // muted plum
+	labelColor     = color.NRGBA{R: 0x33, G: 0x33, B: 0x33, A: 0xff} // dark grey text
+)
+
+// Mark is one zero-thickness element drawn by [Marks], in plot units
+// (millimetres).
+type Mark struct {
+	// Z is the axial position in mm.
+	Z float64
+	// HalfHeight is the half-length of the bar in mm: the clear aperture
+	// when set, otherwise the default height of the [Marks].
+	HalfHeight float64
+	// Kind is the element type.
+	Kind paraxial.Kind
+	// Converging is true for a thin lens with f > 0.
+	Converging bool
+	// Label is drawn above the bar.
+	Label string
+}
+
+// Marks is a plotter that draws the zero-thickness elements of a system
+// as vertical bars with labels. Create it with [NewMarks].
+type Marks struct {
+	// Marks holds the elements, in system order.
+	Marks []Mark
+	// LineStyle is the style of lens bars; interface bars use the same
+	// width in InterfaceColor.
+	draw.LineStyle
+	// InterfaceColor is the bar colour of refracting interfaces.
+	InterfaceColor color.Color
+	// Label is the style of the labels; a zero Font size means 8 pt in
+	// the plot's default font.
+	Label text.Style
+}
+
+var (
+	_ plot.Plotter     = (*Marks)(nil)
+	_ plot.DataRanger  = (*Marks)(nil)
+	_ plot.Thumbnailer = (*Marks)(nil)
+)
+
+// errNoFinite reports non-finite marker data.
+var errNoFinite = errors.New("optplot: element position or size is not finite")
+
+// NewMarks returns a [Marks] plotter for the zero-thickness elements of
+// sys (spaces are skipped). halfHeight (mm, > 0, finite) is the bar
+// half-length for elements without a clear aperture. An element without a
+// label is labelled with its parameter, for example "f 100 mm" or
+// "R -50 mm".
+func NewMarks(sys paraxial.System, halfHeight float64) (*Marks, error) {
+	if !(halfHeight > 0) || math.IsInf(halfHeight, 0) {
+		return nil, errors.New("optplot: marker half-height must be positive and finite")
+	}
+	m := &Marks{
+		LineStyle:      draw.LineStyle{Color: lensColor, Width: vg.Points(1.6)},
+		InterfaceColor: interfaceColor,
+		Label: text.Style{
+			Color:   labelColor,
+			XAlign:  draw.XCenter,
+			YAlign:  draw.YBottom,
+			Handler: plot.DefaultTextHandler,
+		},
+	}
+	for _, e := range sys.Elements() {
+		if !e.IsSurface() {
+			continue
+		}
+		mk := Mark{Z: e.Z.Millimeters(), HalfHeight: halfHeight, Kind: e.Kind, Label: e.Label, Converging: e.Focal > 0}
+		if e.Aperture > 0 {
+			mk.HalfHeight = e.Aperture.Millimeters()
+		}
+		if mk.Label == "" {
+			mk.Label = defaultLabel(e)
+		}
+		if math.IsNaN(mk.Z) || math.IsInf(mk.Z, 0) || math.IsInf(mk.HalfHeight, 0) {
+			return nil, errNoFinite
+		}
+		m.Marks = append(m.Marks, mk)
+	}
+	return m, nil
+}
+
+func defaultLabel(e paraxial.Element) string {
+	switch e.Kind {
+	case paraxial.KindThinLens:
+		return "f " + units.Length(e.Focal).String()
+	case paraxial.KindSphericalInterface:
+		return "R " + units.Length(e.Radius).String()
+	case paraxial.KindPlanarInterface:
+		return "flat"
+	case paraxial.KindSpace:
+	}
+	return ""
+}
+
+// Plot implements plot.Plotter.
+func (m *Marks) Plot(c draw.Canvas, plt *plot.Plot) {
+	trX, trY := plt.Transforms(&c)
+	lbl := m.Label
+	if lbl.Font.Size == 0 {
+		lbl.Font = plt.X.Tick.Label.Font
+		lbl.Font.Size = vg.Points(8)
+	}
+	if lbl.Handler == nil {
+		lbl.Handler = plt.TextHandler
+	}
+	head := vg.Points(4)
+	lineHeight := lbl.FontExtents().Height
+	var (
+		haveLast         bool
+		lastRight, lastY vg.Length
+	)
+	for _, mk := range m.Marks {
+		x := trX(mk.Z)
+		if !c.ContainsX(x) {
+			continue
+		}
+		top, bot := trY(mk.HalfHeight), trY(-mk.HalfHeight)
+		sty := m.LineStyle
+		if mk.Kind != paraxial.KindThinLens {
+			sty.Color = m.InterfaceColor
+		}
+		c.StrokeLine2(sty, x, bot, x, top)
+		if mk.Kind == paraxial.KindThinLens {
+			// End marks: a converging lens opens outwards (a "diamond"
+			// silhouette), a diverging lens inwards.
+			d := head
+			if !mk.Converging {
+				d = -head
+			}
+			for _, y := range []struct{ at, dir vg.Length }{{top, 1}, {bot, -1}} {
+				tip := y.at
+				base := y.at - y.dir*d
+				c.StrokeLines(sty, []vg.Point{{X: x - head, Y: base}, {X: x, Y: tip}, {X: x + head, Y: base}})
+			}
+		}
+		if mk.Label != "" {
+			// Raise a label by one line when it would overlap the
+			// previous one (elements close together).
+			w := lbl.Width(mk.Label)
+			y := top + head + vg.Points(1)
+			if haveLast && x-w/2 < lastRight+vg.Points(2) && y <= lastY+lineHeight {
+				y = lastY + lineHeight
+			}
+			c.FillText(lbl, vg.Point{X: x, Y: y}, mk.Label)
+			haveLast, lastRight, lastY = true, x+w/2, y
+		}
+	}
+}
+
+// DataRange implements plot.DataRanger: the bar positions and heights, in
+// mm.
+func (m *Marks) DataRange() (xmin, xmax, ymin, ymax float64) {
+	xmin, xmax = math.Inf(1), math.Inf(-1)
+	ymin, ymax = math.Inf(1), math.Inf(-1)
+	for _, mk := range m.Marks {
+		xmin, xmax = math.Min(xmin, mk.Z), math.Max(xmax, mk.Z)
+		ymin, ymax = math.Min(ymin, -mk.HalfHeight), math.Max(ymax, mk.HalfHeight)
+	}
+	return xmin, xmax, ymin, ymax
+}
+
+// Thumbnail implements plot.Thumbnailer with a short vertical bar.
+func (m *Marks) Thumbnail(c *draw.Canvas) {
+	x := (c.Min.X + c.Max.X) / 2
+	c.StrokeLine2(m.LineStyle, x, c.Min.Y, x, c.Max.Y)
+}

@@ -1,0 +1,83 @@
+package paraxial
+
+import (
+	"math/rand/v2"
+	"strconv"
+	"testing"
+
+	"github.com/beamnote/beamnote/opticslib/units"
+)
+
+func randomElements(n int) []Matrix {
+	rng := rand.New(rand.NewPCG(2, 2))
+	b, _ := randomBuilder(rng, n)
+	s, err := b.Build()
+	if err != nil {
+		panic(err)
+	}
+	ms := make([]Matrix, s.Len())
+	for i, e := range s.elems {
+		ms[i] = e.X
+	}
+	return ms
+}
+
+var sinkMatrix Matrix
+
+func BenchmarkCompose(b *testing.B) {
+	for _, n := range []int{10, 20} {
+		ms := randomElements(n)
+		b.Run("n="+strconv.Itoa(n), func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				m := Identity()
+				for _, e := range ms {
+					m = m.Then(e)
+				}
+				sinkMatrix = m
+			}
+		})
+	}
+}
+
+var sinkRay Ray
+
+func BenchmarkApply(b *testing.B) {
+	ms := randomElements(10)
+	m := Identity()
+	for _, e := range ms {
+		m = m.Then(e)
+	}
+	rays := make([]Ray, 1_000_000)
+	rng := rand.New(rand.NewPCG(3, 3))
+	for i := range rays {
+		rays[i] = Ray{Y: units.Length(1e-3 * rng.Float64()), Theta: units.Angle(1e-3 * rng.Float64())}
+	}
+	b.Run("rays=1e6/elements=10", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			var acc Ray
+			for _, r := range rays {
+				o := m.Apply(r)
+				acc.Y += o.Y
+				acc.Theta += o.Theta
+			}
+			sinkRay = acc
+		}
+	})
+}
+
+func BenchmarkBuild(b *testing.B) {
+	b.ReportAllocs()
+	for b.Loop() {
+		bl := NewBuilder()
+		for range 10 {
+			bl.Space(0.1).ThinLens(0.1)
+		}
+		s, err := bl.Build()
+		if err != nil {
+			b.Fatal(err)
+		}
+		sinkMatrix = s.Matrix()
+	}
+}

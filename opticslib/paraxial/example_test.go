@@ -1,0 +1,68 @@
+package paraxial_test
+
+import (
+	"fmt"
+
+	"github.com/beamnote/beamnote/opticslib/paraxial"
+	"github.com/beamnote/beamnote/opticslib/units"
+)
+
+func ExampleBuilder() {
+	// A Kepler telescope: f1 = 100 mm, f2 = 300 mm, separated by f1 + f2.
+	sys, err := paraxial.NewBuilder().
+		ThinLens(100 * units.Millimeter).Label("L1").
+		Space(400 * units.Millimeter).
+		ThinLens(300 * units.Millimeter).Label("L2").Aperture(12.5 * units.Millimeter).
+		Build()
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	m := sys.Matrix()
+	fmt.Printf("A=%.4f B=%.4f m C=%.4f /m D=%.4f\n", m.A, m.B, m.C, m.D)
+	for _, e := range sys.Elements() {
+		fmt.Printf("%-9s %-3s at z = %v\n", e.Kind, e.Label, e.Z)
+	}
+	// Output:
+	// A=-3.0000 B=0.4000 m C=0.0000 /m D=-0.3333
+	// thin lens L1  at z = 0 m
+	// space         at z = 0 m
+	// thin lens L2  at z = 400 mm
+}
+
+func ExampleBuilder_error() {
+	_, err := paraxial.NewBuilder().
+		Space(50 * units.Millimeter).
+		ThinLens(0).
+		Build()
+	fmt.Println(err)
+	// Output:
+	// paraxial: element 1 (thin lens): focal length f = 0 m: must be nonzero and finite
+}
+
+func ExampleSystem_MatrixTo() {
+	// A thick equi-biconvex lens (n = 1.5168, R = ±50 mm, 5 mm thick)
+	// followed by 60 mm of air.
+	sys, _ := paraxial.NewBuilder().
+		Interface(50*units.Millimeter, 1.5168).
+		Space(5*units.Millimeter).
+		Interface(-50*units.Millimeter, 1).
+		Space(60 * units.Millimeter).
+		Build()
+	m, _ := sys.MatrixTo(5 * units.Millimeter) // just after the rear surface
+	fmt.Printf("EFL = %.6f mm, BFL = %.6f mm\n", -1/m.C*1e3, -m.A/m.C*1e3)
+	fmt.Printf("n(2 mm) = %.4f, det = %.4f\n", sys.IndexAt(2*units.Millimeter), sys.Matrix().Det())
+	// Output:
+	// EFL = 49.212999 mm, BFL = 47.536227 mm
+	// n(2 mm) = 1.5168, det = 1.0000
+}
+
+func ExampleMatrix_Apply() {
+	// A ray parallel to the axis at 1 mm height through a 100 mm lens and
+	// 100 mm of free space crosses the axis at the focus.
+	m := paraxial.ThinLens(100 * units.Millimeter).Then(paraxial.Space(100 * units.Millimeter))
+	r := m.Apply(paraxial.Ray{Y: 1 * units.Millimeter})
+	fmt.Printf("y = %.3f mm, θ = %.3f mrad\n", r.Y.Millimeters(), float64(r.Theta/units.Milliradian))
+	// Output:
+	// y = 0.000 mm, θ = -10.000 mrad
+}
