@@ -71,17 +71,26 @@ func (s System) Matrix() Matrix { return s.matrixX }
 // It returns [ErrNonFinite] (and the identity) if z is NaN or ±Inf, and
 // [ErrOverflow] (and the identity) if an entry of the result overflows.
 func (s System) MatrixTo(z units.Length) (Matrix, error) {
+	return s.checkedMatrixTo(z, false)
+}
+
+// MatrixToY is [System.MatrixTo] for the sagittal (Y) plane.
+func (s System) MatrixToY(z units.Length) (Matrix, error) {
+	return s.checkedMatrixTo(z, true)
+}
+
+func (s System) checkedMatrixTo(z units.Length, sagittal bool) (Matrix, error) {
 	if !finite(float64(z)) {
 		return Identity(), ErrNonFinite
 	}
-	m := s.matrixTo(z)
+	m := s.matrixTo(z, sagittal)
 	if !m.finite() {
 		return Identity(), ErrOverflow
 	}
 	return m, nil
 }
 
-func (s System) matrixTo(z units.Length) Matrix {
+func (s System) matrixTo(z units.Length, sagittal bool) Matrix {
 	if z < 0 {
 		return Space(z)
 	}
@@ -98,7 +107,11 @@ func (s System) matrixTo(z units.Length) Matrix {
 		if e.Z > z {
 			return m
 		}
-		m = m.Then(e.X)
+		if sagittal {
+			m = m.Then(e.Y)
+		} else {
+			m = m.Then(e.X)
+		}
 	}
 	if z > s.length {
 		m = m.Then(Space(z - s.length))
