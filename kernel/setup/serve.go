@@ -5,6 +5,7 @@ import (
 	"encoding/hex"
 	"fmt"
 	"net"
+	"os"
 	"path/filepath"
 	"strconv"
 )
@@ -61,6 +62,13 @@ func (l Layout) ServeCommand(opt ServeOptions) (argv []string, env map[string]st
 		"--port-retries=0",
 		"--notebook-dir=" + opt.Dir,
 		"--NotebookApp.token=" + opt.Token,
+		"--MultiKernelManager.default_kernel_name=" + KernelName,
+	}
+	if os.Geteuid() == 0 {
+		// Jupyter refuses to run as root without this flag; containers and
+		// fresh lab machines often are root. The token and loopback rules
+		// above still apply.
+		argv = append(argv, "--allow-root")
 	}
 	host := opt.IP
 	if ip.To4() == nil {
