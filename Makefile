@@ -45,7 +45,7 @@ doctor: $(BK)
 vet:
 	$(GO) vet ./...
 
-gotest: deps
+gotest: kernel
 	$(GO) test ./...
 
 nbtest: kernel

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/json"
 	"fmt"
+	"html"
 	"io"
 	"os"
 	"path/filepath"
@@ -73,10 +74,15 @@ func CheckExecuted(nb Notebook) []string {
 		}
 		where := fmt.Sprintf("cell %d (%s)", i, firstLine(multiline(c.Source)))
 		hasSVG := false
+		compileMsgs := compilerMessages(c.Outputs)
 		for _, o := range c.Outputs {
 			switch o.OutputType {
 			case "error":
-				problems = append(problems, fmt.Sprintf("%s: error %s: %s", where, o.EName, o.EValue))
+				msg := fmt.Sprintf("%s: error %s: %s", where, o.EName, o.EValue)
+				if compileMsgs != "" {
+					msg = fmt.Sprintf("%s: does not compile: %s", where, compileMsgs)
+				}
+				problems = append(problems, msg)
 			case "stream":
 				if m := crashRE.FindString(multiline(o.Text)); m != "" {
 					problems = append(problems, fmt.Sprintf("%s: the cell program crashed (%q on %s)", where, strings.TrimSpace(m), o.Name))
@@ -98,6 +104,26 @@ func CheckExecuted(nb Notebook) []string {
 		problems = append(problems, "no cell produced an image/svg+xml figure")
 	}
 	return problems
+}
+
+// gonbErrRE matches one compiler message in gonb's HTML error report: the
+// cell line, then the message after the main.go location.
+var gonbErrRE = regexp.MustCompile(`gonb-cell-line-info">([^<]*)</span>\s*<span class="gonb-err-location">[^<]*</span>\s*([^\n<]*)`)
+
+// compilerMessages extracts "Cell[3]: Line 2: undefined: f" style messages
+// from gonb's HTML compile-error output, joined by "; ".
+func compilerMessages(outs []Output) string {
+	var msgs []string
+	for _, o := range outs {
+		raw, ok := o.Data["text/html"]
+		if !ok {
+			continue
+		}
+		for _, m := range gonbErrRE.FindAllStringSubmatch(multiline(raw), -1) {
+			msgs = append(msgs, strings.TrimSpace(m[1])+": "+html.UnescapeString(strings.TrimSpace(m[2])))
+		}
+	}
+	return strings.Join(msgs, "; ")
 }
 
 func hasTag(tags []string, t string) bool {
@@ -151,6 +177,8 @@ func (l Layout) ExecuteNotebooks(paths []string, outDir string, user bool, log i
 		if err := l.run(log, l.Root, env, jup, "nbconvert", "--to", "notebook", "--execute",
 			"--ExecutePreprocessor.kernel_name="+KernelName,
 			"--ExecutePreprocessor.timeout=600",
+			// Run every cell and report all failures below, not only the first.
+			"--allow-errors",
 			"--output-dir", outDir, "--output", name, p); err != nil {
 			all = append(all, fmt.Sprintf("%s: %v", p, err))
 			continue
