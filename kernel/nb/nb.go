@@ -34,8 +34,16 @@ import (
 	"github.com/janpfeifer/gonb/gonbui/protocol"
 )
 
-// Out is where the plain-text fallbacks go outside a notebook.
-var Out io.Writer = os.Stdout
+// Out is where the plain-text fallbacks go outside a notebook; nil means
+// the current os.Stdout.
+var Out io.Writer
+
+func out() io.Writer {
+	if Out != nil {
+		return Out
+	}
+	return os.Stdout
+}
 
 // InNotebook reports whether the program runs as a gonb notebook cell.
 func InNotebook() bool { return gonbui.IsNotebook }
@@ -53,13 +61,13 @@ func SVG(svg []byte, caption string) error {
 		return fmt.Errorf("nb: figure %q: empty SVG", caption)
 	}
 	if !InNotebook() {
-		fmt.Fprintf(Out, "[figure: %s (%d bytes of SVG)]\n", caption, len(svg))
+		fmt.Fprintf(out(), "[figure: %s (%d bytes of SVG)]\n", caption, len(svg))
 		if dir := os.Getenv("BEAMNOTE_FIGURE_DIR"); dir != "" {
 			path := strings.TrimRight(dir, "/") + "/" + fileName(caption) + ".svg"
 			if err := SaveSVG(path, svg); err != nil {
 				return err
 			}
-			fmt.Fprintf(Out, "[figure written to %s]\n", path)
+			fmt.Fprintf(out(), "[figure written to %s]\n", path)
 		}
 		return nil
 	}
@@ -85,7 +93,7 @@ func SaveSVG(path string, svg []byte) error {
 // Markdown shows Markdown text; outside a notebook it prints it as is.
 func Markdown(md string) error {
 	if !InNotebook() {
-		fmt.Fprintln(Out, strings.TrimRight(md, "\n"))
+		fmt.Fprintln(out(), strings.TrimRight(md, "\n"))
 		return nil
 	}
 	gonbui.SendData(&protocol.DisplayData{
@@ -101,7 +109,7 @@ func Markdown(md string) error {
 // front-ends and terminals that cannot render it.
 func HTML(fragment, plain string) error {
 	if !InNotebook() {
-		fmt.Fprintln(Out, strings.TrimRight(plain, "\n"))
+		fmt.Fprintln(out(), strings.TrimRight(plain, "\n"))
 		return nil
 	}
 	gonbui.SendData(&protocol.DisplayData{
