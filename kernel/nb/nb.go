@@ -92,32 +92,28 @@ func SaveSVG(path string, svg []byte) error {
 
 // Markdown shows Markdown text; outside a notebook it prints it as is.
 func Markdown(md string) error {
-	if !InNotebook() {
-		fmt.Fprintln(out(), strings.TrimRight(md, "\n"))
-		return nil
-	}
-	gonbui.SendData(&protocol.DisplayData{
-		Data: map[protocol.MIMEType]any{
-			protocol.MIMETextMarkdown: md,
-			protocol.MIMETextPlain:    md,
-		},
-	})
-	return sync()
+	return show(map[protocol.MIMEType]any{
+		protocol.MIMETextMarkdown: md,
+		protocol.MIMETextPlain:    md,
+	}, md)
 }
 
 // HTML shows an HTML fragment with a plain-text alternative for
 // front-ends and terminals that cannot render it.
 func HTML(fragment, plain string) error {
+	return show(map[protocol.MIMEType]any{
+		protocol.MIMETextHTML:  fragment,
+		protocol.MIMETextPlain: plain,
+	}, plain)
+}
+
+// show sends one display bundle in a notebook, or prints plain outside.
+func show(data map[protocol.MIMEType]any, plain string) error {
 	if !InNotebook() {
 		fmt.Fprintln(out(), strings.TrimRight(plain, "\n"))
 		return nil
 	}
-	gonbui.SendData(&protocol.DisplayData{
-		Data: map[protocol.MIMEType]any{
-			protocol.MIMETextHTML:  fragment,
-			protocol.MIMETextPlain: plain,
-		},
-	})
+	gonbui.SendData(&protocol.DisplayData{Data: data})
 	return sync()
 }
 
