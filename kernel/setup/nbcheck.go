@@ -110,6 +110,11 @@ func CheckExecuted(nb Notebook) []string {
 // cell line, then the message after the main.go location.
 var gonbErrRE = regexp.MustCompile(`gonb-cell-line-info">([^<]*)</span>\s*<span class="gonb-err-location">[^<]*</span>\s*([^\n<]*)`)
 
+var (
+	tagRE       = regexp.MustCompile(`<[^>]*>`)
+	goErrLineRE = regexp.MustCompile(`\.go:\d+:\d+: `)
+)
+
 // compilerMessages extracts "Cell[3]: Line 2: undefined: f" style messages
 // from gonb's HTML compile-error output, joined by "; ".
 func compilerMessages(outs []Output) string {
@@ -119,8 +124,19 @@ func compilerMessages(outs []Output) string {
 		if !ok {
 			continue
 		}
-		for _, m := range gonbErrRE.FindAllStringSubmatch(multiline(raw), -1) {
+		h := multiline(raw)
+		for _, m := range gonbErrRE.FindAllStringSubmatch(h, -1) {
 			msgs = append(msgs, strings.TrimSpace(m[1])+": "+html.UnescapeString(strings.TrimSpace(m[2])))
+		}
+		if len(msgs) == 0 {
+			// Not in the cell (a library package failed to build): keep the
+			// compiler's own file:line messages.
+			text := html.UnescapeString(tagRE.ReplaceAllString(h, ""))
+			for _, line := range strings.Split(text, "\n") {
+				if line = strings.TrimSpace(line); goErrLineRE.MatchString(line) && len(msgs) < 3 {
+					msgs = append(msgs, line)
+				}
+			}
 		}
 	}
 	return strings.Join(msgs, "; ")
