@@ -1,6 +1,7 @@
-// Package beam propagates fundamental (TEM₀₀) Gaussian beams through
-// paraxial optical systems with the complex beam parameter q and the ABCD
-// law.
+// Package beam propagates Gaussian beams (TEM₀₀, embedded-Gaussian M²
+// beams, elliptical and simple-astigmatic beams) through paraxial optical
+// systems with the complex beam parameter q and the ABCD law, and checks
+// clear apertures and irradiance along the path.
 //
 // # Units
 //
@@ -51,11 +52,42 @@
 // package accumulates it element by element so that it is not reduced
 // modulo 2π.
 //
+// # M² beams
+//
+// A beam with propagation ratio M² > 1 is treated as an embedded Gaussian
+// (A. E. Siegman, Proc. SPIE 1224, 2 (1990) [from memory]): q is the
+// parameter of the embedded TEM₀₀ beam and obeys the ABCD law unchanged,
+// and every radius is M = √M² times the embedded one. Equivalently, the
+// TEM₀₀ formulas hold with the effective wavelength M²λ0, for example
+// zR = πW0²n/(M²λ0). See [Gaussian.WithM2].
+//
+// # Astigmatic beams and systems
+//
+// Every [paraxial.Element] has a tangential (X) and a sagittal (Y) matrix.
+// An [Astigmatic] beam holds an independent Gaussian for each, and the
+// system functions ([AtXY], [Waists], [Sample], [Extremes], [Apertures])
+// take an [Input]: a [Gaussian] for a round beam, or an [Astigmatic] one.
+// The x part follows the X matrices and the y part the Y matrices, which
+// is what cylindrical lenses and mirrors used off normal incidence need.
+// [At] returns a single Gaussian and refuses ([ErrAstigmaticSystem]) a
+// plane where the two matrices differ.
+//
+// # Apertures, irradiance and laser safety
+//
+// [Apertures] checks every element with a clear aperture: the fraction a
+// centred beam passes, 1 − exp(−2a²/w²) for a round beam, and a flag below
+// a threshold (default 99 %). [Caustic.Irradiance] gives the on-axis peak
+// irradiance 2P/(π wx wy) along the path. Wherever irradiance or focused
+// power is shown, show [SafetyNote] with it: these are beam-optics
+// estimates, never exposure limits or a safety clearance; local
+// laser-safety rules and the responsible laser safety officer decide.
+//
 // # Errors and panics
 //
-// Constructors ([FromWaist], [FromQ]) and the system functions ([At],
-// [Waists], [Sample], [SampleRange]) validate their input and return a
-// [*ParamError] or a sentinel error; they never panic on user data and never
+// Constructors ([FromWaist], [FromRadius], [FromQ], [Gaussian.WithM2])
+// and the system functions ([At], [AtXY], [Waists], [Sample],
+// [SampleRange], [Extremes], [Apertures], [Caustic.Irradiance]) validate
+// their input and return a [*ParamError] or a sentinel error; they never panic on user data and never
 // return NaN or ±Inf in a result, except the documented +Inf radius of
 // curvature exactly at a waist. The methods of [Gaussian] are pure
 // arithmetic and follow IEEE-754 for a Gaussian that was not validated.

@@ -44,6 +44,8 @@ func ExampleWaists() {
 }
 
 func ExampleSample() {
+	// A collimated 1 mm beam focused by a 200 mm lens; the sampler adds
+	// the element positions and the real waist to the 4 requested points.
 	in, _ := beam.FromWaist(1*units.Millimeter, 0, 1064*units.Nanometer, 1)
 	sys, _ := paraxial.NewBuilder().
 		Space(100 * units.Millimeter).
@@ -58,9 +60,123 @@ func ExampleSample() {
 	for i := range c.Z {
 		fmt.Printf("z = %5.1f mm  w = %.4f mm  n = %.1f\n", c.Z[i]*1e3, c.W[i]*1e3, c.Index[i])
 	}
+	for _, f := range c.Foci {
+		fmt.Printf("focus at z = %.3f mm, w0 = %.2f µm\n", f.Z.Millimeters(), f.Radius.Micrometers())
+	}
 	// Output:
 	// z =   0.0 mm  w = 1.0000 mm  n = 1.0
 	// z = 100.0 mm  w = 1.0006 mm  n = 1.0
 	// z = 200.0 mm  w = 0.5026 mm  n = 1.0
+	// z = 299.5 mm  w = 0.0677 mm  n = 1.0
 	// z = 300.0 mm  w = 0.0677 mm  n = 1.0
+	// focus at z = 0.000 mm, w0 = 1000.00 µm
+	// focus at z = 299.542 mm, w0 = 67.70 µm
+}
+
+func ExampleGaussian_WithM2() {
+	// A diode module: 0.4 mm waist at the exit window, M² = 1.5.
+	g, err := beam.FromWaist(0.4*units.Millimeter, 0, 808*units.Nanometer, 1)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	g, err = g.WithM2(1.5)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	far := g.Transform(paraxial.Space(1*units.Meter), 1)
+	fmt.Printf("zR = %.1f mm, θ = %.3f mrad, w(1 m) = %.3f mm\n",
+		g.RayleighRange().Millimeters(), float64(g.Divergence()/units.Milliradian), far.Radius().Millimeters())
+	_, err = g.WithM2(0.8)
+	fmt.Println(err)
+	// Output:
+	// zR = 414.7 mm, θ = 0.964 mrad, w(1 m) = 1.044 mm
+	// beam: M² = 0.8: must be at least 1 and finite
+}
+
+func ExampleAtXY() {
+	// A round beam through a cylindrical lens that focuses x only.
+	in, _ := beam.FromWaist(1*units.Millimeter, 0, 633*units.Nanometer, 1)
+	sys, err := paraxial.NewBuilder().
+		CylindricalLens(200*units.Millimeter, paraxial.Tangential).
+		Space(200 * units.Millimeter).Build()
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	a, err := beam.AtXY(sys, in, 200*units.Millimeter)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("wx = %.1f µm, wy = %.4f mm\n", a.X.Radius().Micrometers(), a.Y.Radius().Millimeters())
+	_, err = beam.At(sys, in, 200*units.Millimeter)
+	fmt.Println(err)
+	// Output:
+	// wx = 40.3 µm, wy = 1.0008 mm
+	// beam: the system acts differently in x and y here; use AtXY
+}
+
+func ExampleApertures() {
+	// A 3 mm beam meets an 8 mm-diameter mirror mount and a 1-inch lens.
+	in, _ := beam.FromWaist(3*units.Millimeter, 0, 1064*units.Nanometer, 1)
+	sys, _ := paraxial.NewBuilder().
+		Space(100*units.Millimeter).
+		Mirror(paraxial.Flat, 45*units.Degree).Label("fold mirror").Aperture(4 * units.Millimeter).
+		Space(100 * units.Millimeter).
+		ThinLens(200 * units.Millimeter).Label("L1").Aperture(12.7 * units.Millimeter).
+		Space(200 * units.Millimeter).Build()
+	clips, err := beam.Apertures(sys, in, 0) // default threshold 99 %
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for _, c := range clips {
+		fmt.Printf("%s: %.4f %v\n", c.Label, c.Transmission, c.Low)
+		if c.Low {
+			fmt.Println(c.Warning())
+		}
+	}
+	// Output:
+	// fold mirror: 0.9714 true
+	// fold mirror (z = 100 mm): clear aperture radius 4 mm passes 97.14 % of the beam (w = 3 mm), below 99.00 %
+	// L1: 1.0000 false
+}
+
+func ExampleCaustic_Irradiance() {
+	in, _ := beam.FromWaist(2*units.Millimeter, 0, 1064*units.Nanometer, 1)
+	sys, _ := paraxial.NewBuilder().ThinLens(100 * units.Millimeter).Space(200 * units.Millimeter).Build()
+	c, err := beam.Sample(sys, in, 100)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	ir, err := c.Irradiance(0.020) // 20 mW
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Println(ir.Summary() == ir.Summary() && ir.Note == beam.SafetyNote)
+	fmt.Printf("max %.3e W/m² at z = %.3f mm\n", ir.Max, ir.MaxZ.Millimeters())
+	// Output:
+	// true
+	// max 4.440e+07 W/m² at z = 99.993 mm
+}
+
+func ExampleExtremes() {
+	in, _ := beam.FromWaist(0.5*units.Millimeter, 0, 1064*units.Nanometer, 1)
+	sys, _ := paraxial.NewBuilder().
+		Space(50 * units.Millimeter).ThinLens(50 * units.Millimeter).
+		Space(200 * units.Millimeter).ThinLens(150 * units.Millimeter).
+		Space(100 * units.Millimeter).Build()
+	ex, err := beam.Extremes(sys, in)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("smallest %.2f µm at %.2f mm, largest %.3f mm at %.0f mm\n",
+		ex.Min.Radius.Micrometers(), ex.Min.Z.Millimeters(), ex.Max.Radius.Millimeters(), ex.Max.Z.Millimeters())
+	// Output:
+	// smallest 33.87 µm at 100.00 mm, largest 1.500 mm at 250 mm
 }

@@ -48,16 +48,32 @@ func (e *ParamError) Error() string {
 // Unwrap returns e.Err.
 func (e *ParamError) Unwrap() error { return e.Err }
 
-// Gaussian is a fundamental Gaussian beam at one plane.
+// Gaussian is a Gaussian beam at one plane, in one transverse direction or
+// (for a round beam) both.
 //
 // Q is the complex beam parameter in metres, q = z + i zR (see the package
 // documentation for the convention). Wavelength is the vacuum wavelength λ0
 // in metres and Index the refractive index of the medium at the plane.
-// Construct values with [FromWaist] or [FromQ], which validate them.
+//
+// M2 is the beam propagation ratio M² ≥ 1 of an embedded-Gaussian beam
+// (A. E. Siegman, "New developments in laser resonators", Proc. SPIE 1224,
+// 2–14 (1990) [from memory]; ISO 11146-1 for the name). Q is then the
+// parameter of the embedded TEM₀₀ beam, which obeys the ABCD law unchanged,
+// and the real beam is M = √M² times wider at every plane:
+//
+//	W = M·w_embedded,   zR = π W0² n/(M² λ0)
+//
+// that is, a TEM₀₀ formula with the effective wavelength M²λ0. The zero
+// value of M2 means 1, a pure TEM₀₀ beam, so a literal Gaussian{Q, λ0, n}
+// is a TEM₀₀ beam.
+//
+// Construct values with [FromWaist], [FromRadius] or [FromQ] and
+// [Gaussian.WithM2], which validate them.
 type Gaussian struct {
 	Q          complex128
 	Wavelength units.Length
 	Index      float64
+	M2         float64
 }
 
 func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
@@ -98,6 +114,75 @@ func FromWaist(w0, waistOffset, lambda0 units.Length, n float64) (Gaussian, erro
 	return g, g.Validate()
 }
 
+// FromRadius returns the TEM₀₀ beam that has 1/e² intensity radius w
+// (metres) and wavefront radius of curvature r (metres; r > 0 for a
+// diverging beam, r < 0 for a converging one, ±Inf for a flat wavefront) at
+// the plane, in a medium of index n at vacuum wavelength λ0 (metres):
+//
+//	1/q = 1/r − i λ/(π w²),   λ = λ0/n
+//
+// (Kogelnik & Li 1966). This is how a beam measured with a profiler and a
+// wavefront sensor (or a shear plate) at one plane is entered. For a beam
+// with M² > 1 measured this way, the effective wavelength M²λ0 replaces λ
+// above, since q depends on λ0 and M² only through M²λ0:
+//
+//	g, err := beam.FromRadius(w, r, m2*lambda0, n)
+//	g.Wavelength, g.M2 = lambda0, m2
+//
+// A beam known by its waist is entered with [FromWaist] and
+// [Gaussian.WithM2] instead.
+//
+// It returns a [*ParamError] unless w, λ0 and n are positive and finite
+// and r is nonzero and not NaN.
+func FromRadius(w, r, lambda0 units.Length, n float64) (Gaussian, error) {
+	if !finite(float64(w)) || w <= 0 {
+		return Gaussian{}, &ParamError{Param: "beam radius w", Value: float64(w), Length: true, Reason: "must be positive and finite"}
+	}
+	if math.IsNaN(float64(r)) || r == 0 {
+		return Gaussian{}, &ParamError{Param: "radius of curvature R", Value: float64(r), Length: true, Reason: "must be nonzero (±Inf for a flat wavefront)"}
+	}
+	if err := checkLight(lambda0, n); err != nil {
+		return Gaussian{}, err
+	}
+	lambda := float64(lambda0) / n
+	inv := complex(1/float64(r), -lambda/(math.Pi*float64(w*w)))
+	g := Gaussian{Q: 1 / inv, Wavelength: lambda0, Index: n}
+	return g, g.Validate()
+}
+
+// WithM2 returns the embedded-Gaussian beam with propagation ratio m2 ≥ 1
+// that has the same waist radius W0 and the same waist position as g (the
+// way laser data sheets specify a beam: waist diameter, waist location and
+// M²). Its Rayleigh range is
+//
+//	zR = π W0² n/(m2 λ0)
+//
+// and its divergence m2·λ0/(n π W0) (Siegman 1990 [from memory]). At a
+// plane away from the waist the radius therefore differs from g's. It
+// returns a [*ParamError] if m2 < 1 or m2 is not finite, or if g is not a
+// valid beam.
+func (g Gaussian) WithM2(m2 float64) (Gaussian, error) {
+	if err := g.Validate(); err != nil {
+		return Gaussian{}, err
+	}
+	if !finite(m2) || !(m2 >= 1) {
+		return Gaussian{}, &ParamError{Param: "M²", Value: m2, Reason: "must be at least 1 and finite"}
+	}
+	w0 := float64(g.WaistRadius())
+	zR := math.Pi * float64(w0*w0) * g.Index / (m2 * float64(g.Wavelength))
+	h := Gaussian{Q: complex(real(g.Q), zR), Wavelength: g.Wavelength, Index: g.Index, M2: m2}
+	return h, h.Validate()
+}
+
+// BeamQuality returns the propagation ratio M² of g: g.M2, or 1 when M2 is
+// zero.
+func (g Gaussian) BeamQuality() float64 {
+	if g.M2 == 0 {
+		return 1
+	}
+	return g.M2
+}
+
 // FromQ returns the beam with parameter q (metres) in a medium of index n
 // at vacuum wavelength λ0 (metres). It returns a [*ParamError] unless q is
 // finite with Im q > 0 and λ0 and n are positive and finite.
@@ -106,12 +191,15 @@ func FromQ(q complex128, lambda0 units.Length, n float64) (Gaussian, error) {
 	return g, g.Validate()
 }
 
-// Validate returns nil if g is a physical beam: finite Q with Im Q > 0 and
-// positive finite wavelength and index. Otherwise it returns a
-// [*ParamError].
+// Validate returns nil if g is a physical beam: finite Q with Im Q > 0,
+// positive finite wavelength and index, and M2 zero (meaning 1) or a finite
+// number ≥ 1. Otherwise it returns a [*ParamError].
 func (g Gaussian) Validate() error {
 	if err := checkLight(g.Wavelength, g.Index); err != nil {
 		return err
+	}
+	if g.M2 != 0 && (!finite(g.M2) || !(g.M2 >= 1)) {
+		return &ParamError{Param: "M²", Value: g.M2, Reason: "must be at least 1 and finite (0 means 1)"}
 	}
 	if !finite(real(g.Q)) || !finite(imag(g.Q)) || !(imag(g.Q) > 0) {
 		return &ParamError{Param: "Im q", Value: imag(g.Q), Length: true, Err: ErrNotPhysical}
@@ -123,14 +211,14 @@ func (g Gaussian) Validate() error {
 	return nil
 }
 
-// lambda returns the wavelength in the medium, λ0/n.
-func (g Gaussian) lambda() float64 { return float64(g.Wavelength) / g.Index }
+// lambda returns the effective wavelength in the medium, M²λ0/n.
+func (g Gaussian) lambda() float64 { return g.BeamQuality() * float64(g.Wavelength) / g.Index }
 
 // Radius returns the 1/e² intensity radius w at the plane, in metres:
 //
 //	w = |q| √(λ/(π zR)),   equivalently   w = w0 √(1 + (z/zR)²)
 //
-// with λ = λ0/n (Kogelnik & Li 1966).
+// with λ = M²λ0/n (Kogelnik & Li 1966; the M² factor as in [Gaussian]).
 func (g Gaussian) Radius() units.Length {
 	return units.Length(cmplx.Abs(g.Q) * math.Sqrt(g.lambda()/(math.Pi*imag(g.Q))))
 }
@@ -164,7 +252,7 @@ func (g Gaussian) RayleighRange() units.Length { return units.Length(imag(g.Q)) 
 
 // WaistRadius returns the waist radius w0 in metres:
 //
-//	w0 = √(λ zR/π),  λ = λ0/n
+//	w0 = √(λ zR/π),  λ = M²λ0/n
 func (g Gaussian) WaistRadius() units.Length {
 	return units.Length(math.Sqrt(g.lambda() * imag(g.Q) / math.Pi))
 }
@@ -176,9 +264,10 @@ func (g Gaussian) WaistOffset() units.Length { return units.Length(-real(g.Q)) }
 
 // Divergence returns the far-field half-angle of the beam in its medium,
 //
-//	θ = λ/(π w0) = λ0/(n π w0)
+//	θ = λ/(π w0) = M² λ0/(n π w0)
 //
-// in radians (Kogelnik & Li 1966; Siegman, Lasers, ch. 17 [from memory]).
+// in radians (Kogelnik & Li 1966; Siegman, Lasers, ch. 17 [from memory];
+// the M² factor per Siegman 1990 [from memory]).
 func (g Gaussian) Divergence() units.Angle {
 	return units.Angle(g.lambda() / (math.Pi * float64(g.WaistRadius())))
 }
@@ -188,7 +277,7 @@ func (g Gaussian) Divergence() units.Angle {
 //	ψ = arctan(z/zR),  z = Re q
 //
 // in radians; it is negative before the waist and tends to ±π/2 far from
-// it.
+// it. For M² > 1 it is the Gouy phase of the embedded TEM₀₀ beam.
 func (g Gaussian) GouyPhase() units.Angle {
 	return units.Angle(math.Atan(real(g.Q) / imag(g.Q)))
 }
@@ -199,7 +288,7 @@ func (g Gaussian) GouyPhase() units.Angle {
 //	q2 = (A q1 + B)/(C q1 + D)
 //
 // (Kogelnik & Li 1966; see the package documentation for how the index
-// enters). The wavelength is unchanged. nOut must equal the output index of
+// enters). The wavelength and M² are unchanged. nOut must equal the output index of
 // the optics that m describes, n_in/det m; Transform does not check this.
 //
 // Transform is pure arithmetic: if m has det ≤ 0, or C = D = 0, the result
@@ -209,7 +298,7 @@ func (g Gaussian) Transform(m paraxial.Matrix, nOut float64) Gaussian {
 	x, y := real(g.Q), imag(g.Q)
 	num := complex(float64(m.A*x)+m.B, m.A*y)
 	den := complex(float64(m.C*x)+m.D, m.C*y)
-	return Gaussian{Q: num / den, Wavelength: g.Wavelength, Index: nOut}
+	return Gaussian{Q: num / den, Wavelength: g.Wavelength, Index: nOut, M2: g.M2}
 }
 
 // GouyShift returns the Gouy phase accumulated on axis while the beam

@@ -61,33 +61,107 @@ func render(t testing.TB) []byte {
 	return svg
 }
 
+// astigmatic returns a round beam through a cylindrical lens with a
+// too-small clear aperture and a spherical lens, rendered with a ray fan.
+func astigmatic(t testing.TB) []byte {
+	t.Helper()
+	sys, err := paraxial.NewBuilder().
+		Space(30*mm).CylindricalLens(60*mm, paraxial.Tangential).Label("CX").Aperture(1.2 * mm).
+		Space(60 * mm).ThinLens(40 * mm).Label("L1").Aperture(3 * mm).
+		Space(150 * mm).Build()
+	if err != nil {
+		t.Fatalf("Build error: %v", err)
+	}
+	in, err := beam.FromWaist(1*mm, 0, 780*units.Nanometer, 1)
+	if err != nil {
+		t.Fatalf("FromWaist error: %v", err)
+	}
+	c, err := beam.Sample(sys, in, 600)
+	if err != nil {
+		t.Fatalf("Sample error: %v", err)
+	}
+	p, err := Caustic(c, sys, Title("cylinder then lens"),
+		Rays(paraxial.Ray{Y: 0.8 * mm}, paraxial.Ray{Y: -0.8 * mm}, paraxial.Ray{Theta: 0.004}))
+	if err != nil {
+		t.Fatalf("Caustic error: %v", err)
+	}
+	svg, err := SVG(p, 16*vg.Centimeter, 9*vg.Centimeter)
+	if err != nil {
+		t.Fatalf("SVG error: %v", err)
+	}
+	return svg
+}
+
 func TestCausticDeterministic(t *testing.T) {
 	// Golden-image practice of gonum/plot (cmpimg; bytes.Equal for SVG):
 	// two renderings of the same input must be byte-identical, and equal to
 	// the stored golden file.
-	a := render(t)
-	b := render(t)
-	if !bytes.Equal(a, b) {
-		t.Fatalf("two renderings differ (%d and %d bytes)", len(a), len(b))
-	}
-	golden := filepath.Join("testdata", "caustic_expander.svg")
-	if *update {
-		if err := os.WriteFile(golden, a, 0o644); err != nil {
-			t.Fatalf("writing golden file: %v", err)
+	for _, test := range []struct {
+		name   string
+		render func(testing.TB) []byte
+	}{
+		{"caustic_expander.svg", func(t testing.TB) []byte { return render(t) }},
+		{"caustic_astigmatic.svg", astigmatic},
+	} {
+		a := test.render(t)
+		b := test.render(t)
+		if !bytes.Equal(a, b) {
+			t.Errorf("%s: two renderings differ (%d and %d bytes)", test.name, len(a), len(b))
+			continue
+		}
+		golden := filepath.Join("testdata", test.name)
+		if *update {
+			if err := os.WriteFile(golden, a, 0o644); err != nil {
+				t.Fatalf("writing golden file: %v", err)
+			}
+		}
+		want, err := os.ReadFile(golden)
+		if err != nil {
+			t.Errorf("reading golden file (run go test -update): %v", err)
+			continue
+		}
+		if !bytes.Equal(a, want) {
+			t.Errorf("SVG differs from %s (%d vs %d bytes); inspect and run go test -update if intended", golden, len(a), len(want))
 		}
 	}
-	want, err := os.ReadFile(golden)
-	if err != nil {
-		t.Fatalf("reading golden file (run go test -update): %v", err)
+}
+
+func TestCausticAstigmaticContent(t *testing.T) {
+	// The y envelope, legend, waist notes of both planes, the clipping
+	// warning (CX passes 94.4 %: 1 − exp(−2·1.2²/1²), R09 closed form)
+	// and the ray key must be present.
+	svg := string(astigmatic(t))
+	for _, want := range []string{"x (tangential)", "y (sagittal)", "paraxial rays (x)", "x w₀ 14.9 µm @ 90.0 mm", "y w₀ 9.93 µm @ 130.0 mm", "CX · passes 94.4 %"} {
+		if !strings.Contains(svg, want) {
+			t.Errorf("SVG does not contain %q", want)
+		}
 	}
-	if !bytes.Equal(a, want) {
-		t.Errorf("SVG differs from %s (%d vs %d bytes); inspect and run go test -update if intended", golden, len(a), len(want))
+}
+
+func TestCausticOptions(t *testing.T) {
+	c, sys := expander(t)
+	for _, bad := range []float64{0, -1, 1.5} {
+		if _, err := Caustic(c, sys, MinTransmission(bad)); err != ErrOption {
+			t.Errorf("MinTransmission(%g): error = %v, want ErrOption", bad, err)
+		}
+	}
+	// A threshold of 100 % flags every aperture (T < 1 for a finite stop).
+	p, err := Caustic(c, sys, MinTransmission(1), WaistNotes(false), ElementLabels(true))
+	if err != nil {
+		t.Fatalf("Caustic error: %v", err)
+	}
+	svg, err := SVG(p, 16*vg.Centimeter, 9*vg.Centimeter)
+	if err != nil {
+		t.Fatalf("SVG error: %v", err)
+	}
+	if s := string(svg); !strings.Contains(s, "L1 · passes") || strings.Contains(s, "w₀") {
+		t.Errorf("with MinTransmission(1) and no waist notes the SVG should flag L1 and show no w₀ note")
 	}
 }
 
 func TestCausticContent(t *testing.T) {
 	svg := string(render(t))
-	for _, want := range []string{"<svg", XLabel, YLabel, "3× beam expander", "L1", "L2", "R 100 mm", "flat"} {
+	for _, want := range []string{"<svg", XLabel, YLabel, "3× beam expander", "L1", "L2", "R 100 mm", "flat", "w₀ 33.9 µm @ 100.0 mm"} {
 		if !strings.Contains(svg, want) {
 			t.Errorf("SVG does not contain %q", want)
 		}
@@ -104,6 +178,8 @@ func TestCausticErrors(t *testing.T) {
 		{"one point", beam.Caustic{Z: []float64{0}, W: []float64{1}}},
 		{"length mismatch", beam.Caustic{Z: []float64{0, 1}, W: []float64{1}}},
 		{"NaN", beam.Caustic{Z: []float64{0, 1}, W: []float64{1, math.NaN()}}},
+		{"WY length", beam.Caustic{Z: []float64{0, 1}, W: []float64{1, 1}, WY: []float64{1}}},
+		{"WY Inf", beam.Caustic{Z: []float64{0, 1}, W: []float64{1, 1}, WY: []float64{1, math.Inf(1)}}},
 	} {
 		if _, err := Caustic(test.c, sys); err != ErrCaustic {
 			t.Errorf("%s: Caustic error = %v, want ErrCaustic", test.name, err)

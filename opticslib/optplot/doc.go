@@ -10,13 +10,22 @@
 //
 // # Look
 //
-// The caustic plot draws the beam envelope ±w(z) as two lines over a pale
-// band, the optical axis as a thin dotted line, and each zero-thickness
-// element as a vertical bar at its position with a short label above it.
-// Thin lenses carry small end marks that open outwards for a converging
-// lens and inwards for a diverging one; refracting interfaces are plain
-// bars in a second colour. The palette (deep teal, warm ochre, muted plum
-// on white) is this package's own.
+// The caustic plot draws the x (tangential) envelope ±w(z) as two lines
+// over a pale band, the optical axis as a thin dotted line, and each
+// zero-thickness element as a vertical bar at its position with a short
+// label above it. Thin lenses carry small end marks that open outwards for
+// a converging lens and inwards for a diverging one; other surfaces are
+// plain bars in a second colour. A clear aperture shows as a pair of short
+// stops at ±a; stops that pass less than the threshold are heavier and
+// vermilion, and the element label then states the transmitted fraction.
+// When the beam differs in x and y, the y (sagittal) envelope is drawn
+// dashed in brick red and a small key appears on the side where the beam
+// is narrower. Every real waist gets short bars at ±w0 and a dotted leader
+// down to a one-line note "w₀ 16.9 µm @ 99.9 mm" along the bottom of the
+// plot; notes that would overlap move up a row. An optional paraxial ray
+// fan ([Rays]) is drawn in thin translucent slate violet. The palette
+// (deep teal, brick, warm ochre, muted plum, slate violet on white) is this
+// package's own.
 //
 // # Determinism and globals
 //

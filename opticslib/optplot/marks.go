@@ -22,6 +22,10 @@ var (
 	lensColor      = color.NRGBA{R: 0xb0, G: 0x7a, B: 0x3a, A: 0xff} // warm ochre
 	interfaceColor = color.NRGBA{R: 0x78, G: 0x60, B: 0x8c, A: 0xff} // muted plum
 	labelColor     = color.NRGBA{R: 0x33, G: 0x33, B: 0x33, A: 0xff} // dark grey text
+	yColor         = color.NRGBA{R: 0xa8, G: 0x4a, B: 0x2c, A: 0xff} // brick, for the y plane
+	rayColor       = color.NRGBA{R: 0x6b, G: 0x6f, B: 0xa8, A: 0xb0} // slate violet, translucent
+	stopColor      = color.NRGBA{R: 0x4a, G: 0x4a, B: 0x4a, A: 0xff} // aperture stops
+	warnColor      = color.NRGBA{R: 0xd2, G: 0x3c, B: 0x1e, A: 0xff} // vermilion: clipping stop
 )
 
 // Mark is one zero-thickness element drawn by [Marks], in plot units
@@ -38,6 +42,12 @@ type Mark struct {
 	Converging bool
 	// Label is drawn above the bar.
 	Label string
+	// Aperture is the clear-aperture radius in mm, 0 when unlimited; it
+	// is drawn as a pair of stops at ±Aperture.
+	Aperture float64
+	// Clipped draws the stops in the warning colour: the aperture passes
+	// less than the threshold of the plot.
+	Clipped bool
 }
 
 // Marks is a plotter that draws the zero-thickness elements of a system
@@ -90,6 +100,7 @@ func NewMarks(sys paraxial.System, halfHeight float64) (*Marks, error) {
 		mk := Mark{Z: e.Z.Millimeters(), HalfHeight: halfHeight, Kind: e.Kind, Label: e.Label, Converging: e.Focal > 0}
 		if e.Aperture > 0 {
 			mk.HalfHeight = e.Aperture.Millimeters()
+			mk.Aperture = mk.HalfHeight
 		}
 		if mk.Label == "" {
 			mk.Label = defaultLabel(e)
@@ -156,6 +167,18 @@ func (m *Marks) Plot(c draw.Canvas, plt *plot.Plot) {
 				c.StrokeLines(sty, []vg.Point{{X: x - head, Y: base}, {X: x, Y: tip}, {X: x + head, Y: base}})
 			}
 		}
+		if mk.Aperture > 0 {
+			// Stops: short horizontal jaws at ±a, heavier and in the
+			// warning colour when the aperture clips the beam.
+			st := draw.LineStyle{Color: stopColor, Width: vg.Points(1.2)}
+			jaw := vg.Points(5)
+			if mk.Clipped {
+				st = draw.LineStyle{Color: warnColor, Width: vg.Points(2.2)}
+				jaw = vg.Points(7)
+			}
+			c.StrokeLine2(st, x-jaw, top, x+jaw, top)
+			c.StrokeLine2(st, x-jaw, bot, x+jaw, bot)
+		}
 		if mk.Label != "" {
 			// Raise a label by one line when it would overlap the
 			// previous one (elements close together).
@@ -164,7 +187,11 @@ func (m *Marks) Plot(c draw.Canvas, plt *plot.Plot) {
 			if haveLast && x-w/2 < lastRight+vg.Points(2) && y <= lastY+lineHeight {
 				y = lastY + lineHeight
 			}
-			c.FillText(lbl, vg.Point{X: x, Y: y}, mk.Label)
+			l := lbl
+			if mk.Clipped {
+				l.Color = warnColor
+			}
+			c.FillText(l, vg.Point{X: x, Y: y}, mk.Label)
 			haveLast, lastRight, lastY = true, x+w/2, y
 		}
 	}
@@ -186,4 +213,14 @@ func (m *Marks) DataRange() (xmin, xmax, ymin, ymax float64) {
 func (m *Marks) Thumbnail(c *draw.Canvas) {
 	x := (c.Min.X + c.Max.X) / 2
 	c.StrokeLine2(m.LineStyle, x, c.Min.Y, x, c.Max.Y)
+}
+
+// maxHalfHeight returns the largest bar half-height in mm (0 without
+// marks).
+func (m *Marks) maxHalfHeight() float64 {
+	h := 0.0
+	for _, mk := range m.Marks {
+		h = math.Max(h, mk.HalfHeight)
+	}
+	return h
 }

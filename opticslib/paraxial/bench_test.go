@@ -81,3 +81,47 @@ func BenchmarkBuild(b *testing.B) {
 		sinkMatrix = s.Matrix()
 	}
 }
+
+var sinkSteps []Step
+
+// BenchmarkTrace traces 10⁶ rays element by element through a 10-element
+// system with clear apertures (vignetting flags on), reusing one Step
+// buffer: zero allocations per ray.
+func BenchmarkTrace(b *testing.B) {
+	rng := rand.New(rand.NewPCG(4, 4))
+	bl, _ := randomBuilder(rng, 10)
+	bl.Aperture(5 * units.Millimeter)
+	s, err := bl.Build()
+	if err != nil {
+		b.Fatal(err)
+	}
+	rays := make([]Ray, 1_000_000)
+	for i := range rays {
+		rays[i] = Ray{Y: units.Length(1e-3 * rng.Float64()), Theta: units.Angle(1e-3 * rng.Float64())}
+	}
+	dst := make([]Step, 0, s.Len()+2)
+	b.Run("rays=1e6/elements=10", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			for _, r := range rays {
+				dst, _ = s.Trace(r, 0, s.Length(), Tangential, dst)
+			}
+			sinkSteps = dst
+		}
+	})
+}
+
+var sinkCardinal Cardinal
+
+func BenchmarkCardinal(b *testing.B) {
+	rng := rand.New(rand.NewPCG(5, 5))
+	bl, _ := randomBuilder(rng, 20)
+	s, err := bl.Build()
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	for b.Loop() {
+		sinkCardinal, _ = s.Cardinal(Tangential)
+	}
+}

@@ -2,6 +2,7 @@ package paraxial
 
 import (
 	"math"
+	"strconv"
 
 	"github.com/beamnote/beamnote/opticslib/units"
 )
@@ -19,17 +20,26 @@ import (
 // (a sticky error); later calls are ignored, and Build returns that error.
 // A Builder is not safe for concurrent use. Build may be called more than
 // once; each System it returns is independent of later builder calls.
+//
+// Each call adds one element, except [Builder.ThickLens] and
+// [Builder.Plate], which add a [Component] of three elements (surface,
+// glass space, surface), and [Builder.Append], which adds a whole
+// sub-system. [Builder.Label] and [Builder.Aperture] act on what the most
+// recent call added.
 type Builder struct {
 	elems []Element
-	n     float64      // index of the current medium
-	z     units.Length // position of the end of the last element
+	comps []Component
+	n     float64 // index of the current medium
 	err   error
+	// start is the index of the first element added by the most recent
+	// call, comp the index in comps of its component or -1.
+	start, comp int
 }
 
 // NewBuilder returns an empty builder whose input medium has index 1
 // (vacuum or, to paraxial accuracy, air).
 func NewBuilder() *Builder {
-	return &Builder{n: 1}
+	return &Builder{n: 1, comp: -1}
 }
 
 func validIndex(n float64) bool { return n > 0 && !math.IsInf(n, 0) } // NaN fails n > 0
@@ -38,6 +48,24 @@ func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 
 func (b *Builder) fail(k Kind, param string, v float64, length bool, reason string) {
 	b.err = &ElementError{Index: len(b.elems), Kind: k, Param: param, Value: v, Length: length, Reason: reason}
+}
+
+// checkRadius validates a radius that may be [Flat] (±Inf).
+func (b *Builder) checkRadius(k Kind, param string, r units.Length, what string) bool {
+	if math.IsNaN(float64(r)) || r == 0 {
+		b.fail(k, param, float64(r), true, "must be nonzero and not NaN (use paraxial.Flat for a flat "+what+")")
+		return false
+	}
+	return true
+}
+
+// checkTilt validates an angle of incidence.
+func (b *Builder) checkTilt(k Kind, aoi units.Angle) bool {
+	if !finite(float64(aoi)) || math.Abs(float64(aoi)) >= math.Pi/2 {
+		b.fail(k, "angle of incidence θ", float64(aoi), false, "must be finite with |θ| < π/2 rad")
+		return false
+	}
+	return true
 }
 
 // Medium sets the refractive index n (dimensionless, > 0, finite) of the
@@ -60,9 +88,12 @@ func (b *Builder) Medium(n float64) *Builder {
 	return b
 }
 
+// begin marks the start of a builder call that adds elements.
+func (b *Builder) begin() {
+	b.start, b.comp = len(b.elems), -1
+}
+
 func (b *Builder) add(e Element) {
-	e.Z = b.z
-	b.z += e.Length
 	b.elems = append(b.elems, e)
 }
 
@@ -76,6 +107,7 @@ func (b *Builder) Space(d units.Length) *Builder {
 		b.fail(KindSpace, "length d", float64(d), true, "must be non-negative and finite")
 		return b
 	}
+	b.begin()
 	m := Space(d)
 	b.add(Element{Kind: KindSpace, Length: d, IndexIn: b.n, IndexOut: b.n, X: m, Y: m})
 	return b
@@ -92,6 +124,7 @@ func (b *Builder) ThinLens(f units.Length) *Builder {
 		b.fail(KindThinLens, "focal length f", float64(f), true, "must be nonzero and finite")
 		return b
 	}
+	b.begin()
 	m := ThinLens(f)
 	b.add(Element{Kind: KindThinLens, Focal: f, IndexIn: b.n, IndexOut: b.n, X: m, Y: m})
 	return b
@@ -114,6 +147,7 @@ func (b *Builder) Interface(r units.Length, n2 float64) *Builder {
 		b.fail(KindSphericalInterface, "index n2", n2, false, "must be positive and finite")
 		return b
 	}
+	b.begin()
 	m := SphericalInterface(r, b.n, n2)
 	b.add(Element{Kind: KindSphericalInterface, Radius: r, IndexIn: b.n, IndexOut: n2, X: m, Y: m})
 	b.n = n2
@@ -131,15 +165,242 @@ func (b *Builder) PlanarInterface(n2 float64) *Builder {
 		b.fail(KindPlanarInterface, "index n2", n2, false, "must be positive and finite")
 		return b
 	}
+	b.begin()
 	m := PlanarInterface(b.n, n2)
 	b.add(Element{Kind: KindPlanarInterface, IndexIn: b.n, IndexOut: n2, X: m, Y: m})
 	b.n = n2
 	return b
 }
 
-// Label names the most recently added element. Labels are free text and
-// need not be unique. Calling Label before any element is an error
-// wrapping [ErrNoElement].
+// surface returns the element of a lens surface of radius r (possibly
+// [Flat]) from index n1 into n2.
+func surface(r units.Length, n1, n2 float64) Element {
+	if math.IsInf(float64(r), 0) {
+		m := PlanarInterface(n1, n2)
+		return Element{Kind: KindPlanarInterface, IndexIn: n1, IndexOut: n2, X: m, Y: m}
+	}
+	m := SphericalInterface(r, n1, n2)
+	return Element{Kind: KindSphericalInterface, Radius: r, IndexIn: n1, IndexOut: n2, X: m, Y: m}
+}
+
+// ThickLens appends a lens of front radius r1, back radius r2 (metres,
+// nonzero, not NaN; [Flat] for a plane side), centre thickness t (metres,
+// > 0, finite) and index n (> 0, finite) in the current medium. It adds
+// three elements: the front surface at the current position, a space of
+// length t in index n, and the back surface at the current position + t,
+// grouped as a [Component] of kind [KindThickLens]. The matrix of the
+// three is [ThickLens](r1, r2, t, n, n0).
+//
+// A plano-convex lens with its curved side towards the light is
+// ThickLens(R, paraxial.Flat, t, n). Errors name kind "thick lens" and the
+// index of the front surface.
+func (b *Builder) ThickLens(r1, r2, t units.Length, n float64) *Builder {
+	if b.err != nil {
+		return b
+	}
+	if !b.checkRadius(KindThickLens, "front radius R1", r1, "side") || !b.checkRadius(KindThickLens, "back radius R2", r2, "side") {
+		return b
+	}
+	if !finite(float64(t)) || t <= 0 {
+		b.fail(KindThickLens, "centre thickness t", float64(t), true, "must be positive and finite")
+		return b
+	}
+	if !validIndex(n) {
+		b.fail(KindThickLens, "index n", n, false, "must be positive and finite")
+		return b
+	}
+	b.begin()
+	n0 := b.n
+	gap := Space(t)
+	b.add(surface(r1, n0, n))
+	b.add(Element{Kind: KindSpace, Length: t, IndexIn: n, IndexOut: n, X: gap, Y: gap})
+	b.add(surface(r2, n, n0))
+	b.comp = len(b.comps)
+	b.comps = append(b.comps, Component{Kind: KindThickLens, First: b.start, Last: b.start + 2})
+	return b
+}
+
+// Plate appends a plane-parallel plate (window, cover glass, filter) of
+// thickness t (metres, > 0, finite) and index n (> 0, finite) in the
+// current medium, tilted so that the axis ray meets it at angle of
+// incidence aoi (radians, |aoi| < π/2; 0 for normal incidence). It adds a
+// [Component] of kind [KindPlate]: a planar entrance surface, a space in
+// the glass whose length is the axis ray's path t/cos θ', and a planar
+// exit surface, with n0 sin θ = n sin θ'. At normal incidence the plate
+// acts as an air-equivalent gap t·n0/n and moves an image by
+// [PlateShift]; when tilted, the surfaces carry the astigmatic matrices of
+// [TiltedPlanarInterface]. The lateral offset of the axis ray
+// ([PlateDisplacement]) is not part of the paraxial model, whose axis is
+// the axis ray itself.
+//
+// It is an error if the axis ray is totally reflected (n < n0 at a steep
+// angle).
+func (b *Builder) Plate(t units.Length, n float64, aoi units.Angle) *Builder {
+	if b.err != nil {
+		return b
+	}
+	if !finite(float64(t)) || t <= 0 {
+		b.fail(KindPlate, "thickness t", float64(t), true, "must be positive and finite")
+		return b
+	}
+	if !validIndex(n) {
+		b.fail(KindPlate, "index n", n, false, "must be positive and finite")
+		return b
+	}
+	if !b.checkTilt(KindPlate, aoi) {
+		return b
+	}
+	n0 := b.n
+	sin2 := n0 * math.Sin(float64(aoi)) / n
+	if math.Abs(sin2) >= 1 {
+		b.fail(KindPlate, "angle of incidence θ", float64(aoi), false, "is beyond the critical angle for n0 = "+strconv.FormatFloat(n0, 'g', -1, 64)+" into n = "+strconv.FormatFloat(n, 'g', -1, 64))
+		return b
+	}
+	inner := units.Angle(math.Asin(sin2))
+	path := t / units.Length(math.Cos(float64(inner)))
+	b.begin()
+	x1, y1 := TiltedPlanarInterface(n0, n, aoi)
+	x2, y2 := TiltedPlanarInterface(n, n0, inner)
+	gap := Space(path)
+	b.add(Element{Kind: KindPlanarInterface, Tilt: aoi, IndexIn: n0, IndexOut: n, X: x1, Y: y1})
+	b.add(Element{Kind: KindSpace, Length: path, IndexIn: n, IndexOut: n, X: gap, Y: gap})
+	b.add(Element{Kind: KindPlanarInterface, Tilt: inner, IndexIn: n, IndexOut: n0, X: x2, Y: y2})
+	b.comp = len(b.comps)
+	b.comps = append(b.comps, Component{Kind: KindPlate, First: b.start, Last: b.start + 2, Thickness: t, Tilt: aoi})
+	return b
+}
+
+// Mirror appends a mirror of radius r (metres, nonzero, not NaN; [Flat]
+// for a flat mirror; r < 0 for a concave mirror facing the light, whose
+// focal length is f = −r/2 > 0) met at angle of incidence aoi (radians,
+// |aoi| < π/2) in the current medium. The path is unfolded: light leaves
+// towards +z, and the element's matrices are those of [Mirror], with
+// tangential focal length f·cos θ and sagittal f/cos θ.
+func (b *Builder) Mirror(r units.Length, aoi units.Angle) *Builder {
+	if b.err != nil {
+		return b
+	}
+	if !b.checkRadius(KindMirror, "radius R", r, "mirror") || !b.checkTilt(KindMirror, aoi) {
+		return b
+	}
+	b.begin()
+	x, y := Mirror(r, aoi)
+	e := Element{Kind: KindMirror, Tilt: aoi, IndexIn: b.n, IndexOut: b.n, X: x, Y: y}
+	if !math.IsInf(float64(r), 0) {
+		e.Radius, e.Focal = r, -r/2
+	}
+	b.add(e)
+	return b
+}
+
+// CylindricalLens appends a thin cylindrical lens of focal length f
+// (metres, nonzero, finite) with power in plane p only; its matrices are
+// [CylindricalLens](f, p).
+func (b *Builder) CylindricalLens(f units.Length, p Plane) *Builder {
+	if b.err != nil {
+		return b
+	}
+	if !finite(float64(f)) || f == 0 {
+		b.fail(KindCylindricalLens, "focal length f", float64(f), true, "must be nonzero and finite")
+		return b
+	}
+	if p != Tangential && p != Sagittal {
+		b.fail(KindCylindricalLens, "plane", float64(p), false, "must be Tangential or Sagittal")
+		return b
+	}
+	b.begin()
+	x, y := CylindricalLens(f, p)
+	b.add(Element{Kind: KindCylindricalLens, Focal: f, Plane: p, IndexIn: b.n, IndexOut: b.n, X: x, Y: y})
+	return b
+}
+
+// Diaphragm appends an opaque screen with a circular opening of radius
+// (metres, > 0, finite), such as an iris that serves as aperture stop or a
+// field diaphragm. It does not deflect rays (identity matrices); its
+// Aperture is the opening radius.
+func (b *Builder) Diaphragm(radius units.Length) *Builder {
+	if b.err != nil {
+		return b
+	}
+	if !finite(float64(radius)) || radius <= 0 {
+		b.fail(KindDiaphragm, "opening radius", float64(radius), true, "must be positive and finite")
+		return b
+	}
+	b.begin()
+	b.add(Element{Kind: KindDiaphragm, Aperture: radius, IndexIn: b.n, IndexOut: b.n, X: Identity(), Y: Identity()})
+	return b
+}
+
+// detTolerance is the relative tolerance on det = 1 for user matrices:
+// loose enough for matrices typed with nine or more significant digits,
+// tight enough to catch a wrong entry.
+const detTolerance = 1e-9
+
+// Matrix appends a user-supplied element of zero length in the current
+// medium with tangential matrix x and sagittal matrix y (pass the same
+// matrix twice for a symmetric element). The entries must be finite and
+// each determinant must be 1 within a relative 1e-9, as for any element
+// that starts and ends in the same medium (det M = n_in/n_out). Put a
+// [Builder.Space] after it for a black box with length.
+func (b *Builder) Matrix(x, y Matrix) *Builder {
+	if b.err != nil {
+		return b
+	}
+	for _, m := range []struct {
+		name string
+		m    Matrix
+	}{{"X", x}, {"Y", y}} {
+		for _, v := range []struct {
+			name string
+			v    float64
+		}{{"A", m.m.A}, {"B", m.m.B}, {"C", m.m.C}, {"D", m.m.D}} {
+			if !finite(v.v) {
+				b.fail(KindMatrix, m.name+"."+v.name, v.v, false, "must be finite")
+				return b
+			}
+		}
+		if d := m.m.Det(); !finite(d) || math.Abs(d-1) > detTolerance {
+			b.fail(KindMatrix, "det "+m.name, d, false, "must be 1 (the element keeps the medium)")
+			return b
+		}
+	}
+	b.begin()
+	b.add(Element{Kind: KindMatrix, IndexIn: b.n, IndexOut: b.n, X: x, Y: y})
+	return b
+}
+
+// Append appends every element of sub, a system built earlier, so that a
+// sub-assembly (a telescope, a relay) can be used several times. sub's
+// input index must equal the current index (relative 1e-12); the current
+// index becomes sub's output index. Labels, apertures and components are
+// kept. An empty sub adds nothing.
+func (b *Builder) Append(sub System) *Builder {
+	if b.err != nil {
+		return b
+	}
+	if !validIndex(sub.nIn) {
+		b.err = &ElementError{Index: len(b.elems), Op: "Append", Param: "sub-system input index", Value: sub.nIn, Reason: "must be positive and finite (build the sub-system with a Builder)"}
+		return b
+	}
+	if math.Abs(sub.nIn-b.n) > 1e-12*b.n {
+		b.err = &ElementError{Index: len(b.elems), Op: "Append", Param: "sub-system input index", Value: sub.nIn, Reason: "must equal the current index " + strconv.FormatFloat(b.n, 'g', -1, 64)}
+		return b
+	}
+	b.begin()
+	for _, c := range sub.comps {
+		c.First += b.start
+		c.Last += b.start
+		b.comps = append(b.comps, c)
+	}
+	b.elems = append(b.elems, sub.elems...)
+	b.n = sub.nOut
+	return b
+}
+
+// Label names what the most recent call added: the element, the three
+// elements and the component of a thick lens or plate, or every element of
+// an appended system. Labels are free text and need not be unique.
+// Calling Label before any element is an error wrapping [ErrNoElement].
 func (b *Builder) Label(name string) *Builder {
 	if b.err != nil {
 		return b
@@ -148,13 +409,21 @@ func (b *Builder) Label(name string) *Builder {
 		b.err = &ElementError{Index: 0, Op: "Label(" + quote(name) + ")", Err: ErrNoElement}
 		return b
 	}
-	b.elems[len(b.elems)-1].Label = name
+	for i := b.start; i < len(b.elems); i++ {
+		b.elems[i].Label = name
+	}
+	if b.comp >= 0 {
+		b.comps[b.comp].Label = name
+	}
 	return b
 }
 
 // Aperture sets the clear-aperture radius (metres, ≥ 0, finite; 0 means
-// unlimited) of the most recently added element. Calling Aperture before
-// any element is an error wrapping [ErrNoElement].
+// unlimited) of what the most recent call added: the element, both
+// surfaces of a thick lens or plate, or every surface of an appended
+// system. After [Builder.Space] it sets the aperture of the gap (a tube,
+// checked at both ends). Calling Aperture before any element is an error
+// wrapping [ErrNoElement].
 func (b *Builder) Aperture(radius units.Length) *Builder {
 	if b.err != nil {
 		return b
@@ -165,10 +434,20 @@ func (b *Builder) Aperture(radius units.Length) *Builder {
 	}
 	last := len(b.elems) - 1
 	if !finite(float64(radius)) || radius < 0 {
-		b.err = &ElementError{Index: last, Kind: b.elems[last].Kind, Param: "aperture radius", Value: float64(radius), Length: true, Reason: "must be non-negative and finite"}
+		k := b.elems[last].Kind
+		idx := last
+		if b.comp >= 0 {
+			k, idx = b.comps[b.comp].Kind, b.start
+		}
+		b.err = &ElementError{Index: idx, Kind: k, Param: "aperture radius", Value: float64(radius), Length: true, Reason: "must be non-negative and finite"}
 		return b
 	}
-	b.elems[last].Aperture = radius
+	single := b.start == last
+	for i := b.start; i <= last; i++ {
+		if single || b.elems[i].IsSurface() {
+			b.elems[i].Aperture = radius
+		}
+	}
 	return b
 }
 
@@ -178,28 +457,15 @@ func (b *Builder) Err() error { return b.err }
 // Build returns the assembled system, or the first error met by the
 // setters. It returns [ErrOverflow] if the total length or an entry of the
 // system matrix is not finite (finite but extreme inputs, such as
-// Space(1e300) followed by ThinLens(1e-300), can overflow). An empty builder yields an empty system of length 0 whose
-// matrix is the identity.
+// Space(1e300) followed by ThinLens(1e-300), can overflow). An empty
+// builder yields an empty system of length 0 whose matrix is the identity;
+// the analyses ([System.Cardinal], [System.Image], [System.Apertures])
+// reject it with [ErrEmpty].
 func (b *Builder) Build() (System, error) {
 	if b.err != nil {
 		return System{}, b.err
 	}
-	s := System{
-		elems:   append([]Element(nil), b.elems...),
-		nIn:     b.nIn(),
-		nOut:    b.n,
-		length:  b.z,
-		matrixX: Identity(),
-		matrixY: Identity(),
-	}
-	for _, e := range s.elems {
-		s.matrixX = s.matrixX.Then(e.X)
-		s.matrixY = s.matrixY.Then(e.Y)
-	}
-	if !s.matrixX.finite() || !s.matrixY.finite() || !finite(float64(s.length)) {
-		return System{}, ErrOverflow
-	}
-	return s, nil
+	return assemble(b.elems, b.comps, b.nIn(), b.n)
 }
 
 func (b *Builder) nIn() float64 {

@@ -1,55 +1,108 @@
-// Package paraxial models rotationally symmetric optical systems in the
-// paraxial (first-order) approximation with 2×2 ray-transfer (ABCD) matrices.
+// Package paraxial models optical systems in the paraxial (first-order)
+// approximation with 2×2 ray-transfer (ABCD) matrices: elements, systems,
+// cardinal points, imaging, stops and pupils, and ray traces with
+// vignetting flags.
 //
 // # Units
 //
-// Lengths are in metres (see package units). In a [Matrix], B is in metres,
-// C in 1/m, and A and D are dimensionless. Ray heights are [units.Length],
-// ray angles are [units.Angle] in radians.
+// Lengths are in metres (see package units), so a caller writes
+// 150*units.Millimeter. In a [Matrix], B is in metres, C in 1/m, and A and
+// D are dimensionless; powers are in 1/m (dioptres). Ray heights are
+// [units.Length], ray angles [units.Angle] in radians.
 //
 // # Rays and angles
 //
 // A [Ray] is the column vector (y, θ): the height y above the axis and the
-// slope angle θ ≈ dy/dz. The angles are un-reduced: θ is the geometric slope
-// in the local medium, not the reduced angle n·θ. Consequently
+// slope angle θ ≈ dy/dz. The angles are un-reduced: θ is the geometric
+// slope in the local medium, not the reduced angle n·θ. Consequently
 //
 //	det M = n_in / n_out
 //
 // for any system (A. Gerrard & J. M. Burch, Introduction to Matrix Methods
-// in Optics, Wiley 1975, ch. 2 [from memory]). A system that starts and ends
-// in the same medium has det M = 1.
+// in Optics, Wiley 1975, ch. 2 [from memory]). A system that starts and
+// ends in the same medium has det M = 1. [Matrix.Reduced] converts to the
+// reduced form acting on (y, n·θ), whose determinant is always 1:
+//
+//	A_red = A,  B_red = B/n_in,  C_red = n_out·C,  D_red = n_out·D/n_in
+//
+// and [MatrixFromReduced] converts back.
+//
+// # Order of multiplication
+//
+// Matrices multiply right to left: for elements met in the order M₁, M₂,
+// M₃ the system matrix is M₃·M₂·M₁ (the element met first is rightmost).
+// [Matrix.Then] reads in the order of the light: M₁.Then(M₂).Then(M₃).
 //
 // # Signs
 //
 // Light travels towards +z. Heights are positive above the axis, angles are
 // positive for rays rising towards +z. A radius of curvature R is positive
 // when the centre of curvature lies after the vertex (at larger z), so a
-// surface that is convex towards the incoming light has R > 0. A focal
-// length f is positive for a converging lens.
+// surface that is convex towards the incoming light has R > 0, and a
+// concave mirror facing the light has R < 0 (focal length f = −R/2 > 0).
+// A focal length f is positive for a converging element. A flat surface is
+// never written as R = 0: use [Builder.PlanarInterface] or the radius
+// [Flat].
 //
 // # Elements and positions
 //
-// A [System] is an ordered list of [Element]s: free-space gaps ([KindSpace])
-// with a length, and zero-thickness surfaces (thin lenses, spherical and
-// planar interfaces) located at an axial position. Elements are numbered
-// from 0 in the order they were added to the [Builder]; error messages use
-// the same numbering. Positions z are measured from the input plane, z = 0.
-// Every element carries a tangential (X) and a sagittal (Y) matrix; they are
-// equal for the rotationally symmetric elements of this package, and are
-// kept separate so that astigmatic elements can be added later.
-// [System.Matrix] and [System.MatrixTo] return the tangential (X) matrices.
+// A [System] is an ordered list of [Element]s. Only spaces ([KindSpace])
+// have axial length; every other element is a zero-thickness surface at
+// one position Z with Length = 0:
+//
+//	kind                    length   notes
+//	space                   Length   gap in one medium, Z = entrance
+//	thin lens               0        f
+//	spherical interface     0        R, n → n'
+//	planar interface        0        n → n'; tilted inside a tilted plate
+//	mirror                  0        R (0 = flat), Tilt; unfolded, z keeps increasing
+//	cylindrical lens        0        f in one Plane
+//	matrix                  0        user X and Y
+//	diaphragm               0        opening radius = Aperture
+//
+// A thick lens ([Builder.ThickLens]) and a plane-parallel plate
+// ([Builder.Plate]) are each expanded into three elements, front surface,
+// a space in the glass, back surface, grouped as a [Component]; the glass
+// space carries the thickness (for a tilted plate, the path length of the
+// axis ray in the glass). A beam or ray can therefore be followed inside
+// the glass with [System.MatrixTo] and [System.IndexAt].
+//
+// Positions z are measured from the input plane, z = 0, along the unfolded
+// axis. Elements are numbered from 0 in the order they were added to the
+// [Builder]; error messages use the same numbering.
+//
+// # Tangential and sagittal planes
+//
+// Every element carries a tangential (X) and a sagittal (Y) matrix. They
+// are equal for rotationally symmetric elements and differ for
+// cylindrical lenses, mirrors and plates at an angle of incidence, and user
+// matrices. Analyses take a [Plane]. [System.Matrix] and
+// [System.MatrixTo] return the tangential matrices, [System.MatrixY] and
+// [System.MatrixToY] the sagittal ones.
+//
+// # Systems are values
+//
+// A [System] is immutable. What-if edits ([System.WithSpace],
+// [System.Replace], [System.Reverse]) return a new System and leave the old
+// one unchanged; a built system can be reused as a sub-assembly with
+// [Builder.Append]. Methods that return slices return copies. Nothing in
+// this package modifies its arguments.
 //
 // # Errors and panics
 //
-// The element constructors ([Space], [ThinLens], [SphericalInterface],
-// [PlanarInterface]) and the [Matrix] methods are pure arithmetic: they never
-// fail, and degenerate input follows IEEE-754 (for example ThinLens(0) has
-// C = -Inf). User data is validated once, by [Builder]: the first bad value
-// is kept (a sticky error) and returned by [Builder.Build] as an
-// [*ElementError] naming the element index, kind, parameter and value.
-// Functions panic only on programmer error: [System.Element] with an index
-// out of range.
+// The matrix constructors ([Space], [ThinLens], [SphericalInterface],
+// [PlanarInterface], [ThickLens], [Mirror], …) and the [Matrix] methods are
+// pure arithmetic: they never fail, and degenerate input follows IEEE-754
+// (for example ThinLens(0) has C = -Inf). User data is validated once, by
+// [Builder]: the first bad value (NaN, ±Inf, n ≤ 0, negative thickness,
+// zero radius, …) is kept (a sticky error) and returned by [Builder.Build]
+// as an [*ElementError] naming the element index, kind, parameter and
+// value. Analyses return sentinel errors ([ErrEmpty], [ErrAfocal],
+// [ErrNoStop], …) rather than NaN or Inf; degenerate but meaningful
+// results (an afocal system, a pupil at infinity) are reported by flags
+// with zero values, never by infinities. The one deliberate infinity is
+// the named radius [Flat], which a [Component] reports for a plane side.
 //
-// Nothing in this package modifies its arguments. A [System] is immutable;
-// methods that return slices return copies.
+// Functions panic only on programmer error: an element index out of range
+// in [System.Element], [System.WithSpace] or [System.Replace].
 package paraxial

@@ -11,6 +11,10 @@ import (
 // position.
 var ErrNonFinite = errors.New("paraxial: position must be finite")
 
+// ErrOrder is returned by [System.MatrixBetween] when the start plane lies
+// after the end plane.
+var ErrOrder = errors.New("paraxial: start position after end position")
+
 // ErrOverflow is returned when a composed matrix or length overflows to
 // ±Inf or NaN although every input was finite.
 var ErrOverflow = errors.New("paraxial: matrix entry overflowed (not finite)")
@@ -20,6 +24,7 @@ var ErrOverflow = errors.New("paraxial: matrix entry overflowed (not finite)")
 // is not useful; obtain systems from [Builder.Build].
 type System struct {
 	elems            []Element
+	comps            []Component
 	nIn, nOut        float64
 	length           units.Length
 	matrixX, matrixY Matrix
@@ -50,9 +55,23 @@ func (s System) IndexIn() float64 { return s.nIn }
 // IndexOut returns the refractive index of the output medium.
 func (s System) IndexOut() float64 { return s.nOut }
 
+// Components returns the thick lenses and plates of the system, in order,
+// with their geometry (positions, radii, glass index) read from the
+// elements.
+func (s System) Components() []Component { return append([]Component(nil), s.comps...) }
+
+// PlaneMatrix returns the transfer matrix of the whole system in plane p:
+// [System.Matrix] for Tangential and [System.MatrixY] for Sagittal.
+func (s System) PlaneMatrix(p Plane) Matrix {
+	if p == Sagittal {
+		return s.matrixY
+	}
+	return s.matrixX
+}
+
 // MatrixY returns the sagittal (Y) transfer matrix from the input plane to
-// the output plane. It equals [System.Matrix] for every element kind in
-// this package.
+// the output plane. It equals [System.Matrix] for a rotationally symmetric
+// system.
 func (s System) MatrixY() Matrix { return s.matrixY }
 
 // Matrix returns the tangential (X) transfer matrix from the input plane
@@ -71,50 +90,100 @@ func (s System) Matrix() Matrix { return s.matrixX }
 // It returns [ErrNonFinite] (and the identity) if z is NaN or ±Inf, and
 // [ErrOverflow] (and the identity) if an entry of the result overflows.
 func (s System) MatrixTo(z units.Length) (Matrix, error) {
-	return s.checkedMatrixTo(z, false)
+	return s.matrixTo(z, Tangential)
 }
 
 // MatrixToY is [System.MatrixTo] for the sagittal (Y) plane.
 func (s System) MatrixToY(z units.Length) (Matrix, error) {
-	return s.checkedMatrixTo(z, true)
+	return s.matrixTo(z, Sagittal)
 }
 
-func (s System) checkedMatrixTo(z units.Length, sagittal bool) (Matrix, error) {
+func (s System) matrixTo(z units.Length, p Plane) (Matrix, error) {
 	if !finite(float64(z)) {
 		return Identity(), ErrNonFinite
 	}
-	m := s.matrixTo(z, sagittal)
+	if z < 0 {
+		return Space(z), nil
+	}
+	m := s.between(0, z, true, p)
 	if !m.finite() {
 		return Identity(), ErrOverflow
 	}
 	return m, nil
 }
 
-func (s System) matrixTo(z units.Length, sagittal bool) Matrix {
-	if z < 0 {
-		return Space(z)
+// MatrixBetween returns the transfer matrix in plane p from the plane at
+// z1 to the plane at z2 (metres from the input plane, z1 ≤ z2). Both
+// planes follow the convention of [System.MatrixTo]: the plane at z lies
+// just after any surfaces located at z, so surfaces at z1 are excluded and
+// surfaces at z2 included, and
+//
+//	MatrixTo(z1).Then(MatrixBetween(z1, z2)) = MatrixTo(z2)
+//
+// (use [System.Matrix] for the whole system including surfaces at z = 0).
+// Parts of the range before z = 0 or after Length() propagate in the
+// input or output medium.
+//
+// It returns [ErrNonFinite] if z1 or z2 is not finite, [ErrOrder] if
+// z1 > z2, and [ErrOverflow] if an entry overflows; the matrix is then
+// the identity.
+func (s System) MatrixBetween(z1, z2 units.Length, p Plane) (Matrix, error) {
+	if !finite(float64(z1)) || !finite(float64(z2)) {
+		return Identity(), ErrNonFinite
 	}
+	if z1 > z2 {
+		return Identity(), ErrOrder
+	}
+	m := s.between(z1, z2, false, p)
+	if !m.finite() {
+		return Identity(), ErrOverflow
+	}
+	return m, nil
+}
+
+// between composes the matrix from z1 to z2 ≥ z1. Surfaces at z1 are
+// included only if incl.
+func (s System) between(z1, z2 units.Length, incl bool, p Plane) Matrix {
 	m := Identity()
+	pos := z1
+	if pos < 0 {
+		end := min(z2, 0)
+		m = Space(end - pos)
+		pos = end
+		if z2 < 0 {
+			return m
+		}
+		incl = true // surfaces at z = 0 lie after a start plane before 0
+	}
 	for _, e := range s.elems {
 		if e.Kind == KindSpace {
 			end := e.Z + e.Length
-			if z < end {
-				return m.Then(Space(z - e.Z))
+			if end <= pos {
+				continue
 			}
-			m = m.Then(e.X)
+			if e.Z >= z2 {
+				return m
+			}
+			to := min(end, z2)
+			if to > pos {
+				m = m.Then(Space(to - pos))
+				pos = to
+			}
+			if end > z2 {
+				return m
+			}
 			continue
 		}
-		if e.Z > z {
+		if e.Z < pos || (e.Z == z1 && !incl) {
+			continue
+		}
+		if e.Z > z2 {
 			return m
 		}
-		if sagittal {
-			m = m.Then(e.Y)
-		} else {
-			m = m.Then(e.X)
-		}
+		m = m.Then(e.matrix(p))
 	}
-	if z > s.length {
-		m = m.Then(Space(z - s.length))
+	if z2 > pos {
+		m = m.Then(Space(z2 - pos))
 	}
 	return m
 }

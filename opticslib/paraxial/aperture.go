@@ -1,0 +1,478 @@
+package paraxial
+
+import (
+	"errors"
+	"math"
+	"strconv"
+
+	"github.com/beamnote/beamnote/opticslib/units"
+)
+
+// ErrNoStop is returned by [System.Apertures] when no element has a clear
+// aperture that limits the axial pencil.
+var ErrNoStop = errors.New("paraxial: no clear aperture limits the axial pencil; set one with Builder.Aperture")
+
+// ErrStopImaged is returned by [System.Apertures] when the chief ray is
+// undefined: the object (finite) is imaged onto the stop, or (object at
+// infinity) the stop is at a focal plane of the optics before it.
+var ErrStopImaged = errors.New("paraxial: chief ray undefined: the object is conjugate to the aperture stop")
+
+// Object is the object of an aperture analysis: a plane at a finite
+// axial position, or a point at infinity.
+type Object struct {
+	// Z is the axial position of the object plane in metres from the
+	// input plane; it must be at or before the first surface. It is not
+	// used when Infinite is true.
+	Z units.Length
+	// Infinite selects an object at infinity (rays enter as parallel
+	// pencils; fields are angles).
+	Infinite bool
+}
+
+// ObjectAt returns a finite object plane at axial position z (metres).
+func ObjectAt(z units.Length) Object { return Object{Z: z} }
+
+// ObjectAtInfinity returns an object at infinity.
+func ObjectAtInfinity() Object { return Object{Infinite: true} }
+
+// Field is a field point: an object height for a finite object, or a field
+// angle for an object at infinity; the other member is ignored.
+type Field struct {
+	// Height is the object height in metres (finite objects).
+	Height units.Length
+	// Angle is the field angle in radians (objects at infinity).
+	Angle units.Angle
+}
+
+// Pupil is the image of the aperture stop in object space (entrance pupil)
+// or image space (exit pupil).
+type Pupil struct {
+	// Z is the axial position in metres from the input plane; zero when
+	// AtInfinity.
+	Z units.Length
+	// Radius is the pupil radius in metres; zero when AtInfinity.
+	Radius units.Length
+	// Magnification is the pupil magnification relative to the stop
+	// (radius/stop radius, signed).
+	Magnification float64
+	// AtInfinity reports a telecentric space: the pupil is imaged to
+	// infinity.
+	AtInfinity bool
+}
+
+// Apertures is the result of a first-order aperture analysis of a system
+// for one object, in one plane.
+//
+// Rays are given at the start plane: the object plane for a finite
+// object, the input plane z = 0 for an object at infinity. The marginal
+// ray leaves the axial object point (or enters parallel to the axis) and
+// grazes the edge of the aperture stop. The chief ray leaves the edge of
+// the field and crosses the axis at the centre of the stop. A general ray
+// from field f through relative pupil coordinate ρ ∈ [−1, 1] is, by
+// linearity, chief(f) + ρ·marginal (see [Apertures.Ray]).
+//
+// The aperture stop is the element whose clear aperture, divided by the
+// marginal ray height there, is smallest (W. J. Smith, Modern Optical
+// Engineering, 4th ed., ch. 6 [from memory]); the field stop is the
+// element other than the stop with the smallest ratio of clear aperture to
+// chief-ray height. Pupils are the images of the stop through the
+// elements before it (entrance) and after it (exit).
+type Apertures struct {
+	// Object and Plane are the inputs of the analysis.
+	Object Object
+	Plane  Plane
+	// Start is the axial position at which the rays below are given.
+	Start units.Length
+	// Stop is the element index of the aperture stop and StopZ its
+	// position (a space's entrance or exit when the stop is a tube).
+	Stop  int
+	StopZ units.Length
+	// StopRadius is the clear-aperture radius of the stop in metres.
+	StopRadius units.Length
+	// Entrance and Exit are the pupils.
+	Entrance, Exit Pupil
+	// Marginal is the marginal ray at Start.
+	Marginal Ray
+	// ObjectNA is n·|θ| of the marginal ray in object space (0 for an
+	// object at infinity); ImageNA is n'·|θ'| in image space. Paraxial
+	// NA = n·u.
+	ObjectNA, ImageNA float64
+	// WorkingFNumber is 1/(2·ImageNA), the paraxial working f-number
+	// (Smith, ch. 6 [from memory]); zero when ImageNA = 0 (image at
+	// infinity).
+	WorkingFNumber float64
+	// FNumber is EFL/(2·entrance-pupil radius) for an object at infinity
+	// (equal to WorkingFNumber there) and zero otherwise.
+	FNumber float64
+	// FieldStop is the element index of the field stop, or −1 if no other
+	// clear aperture limits the field; the fields below are then zero.
+	FieldStop int
+	// HalfField is the field at which the chief ray reaches the edge of
+	// the field stop (50 % vignetting, the usual field of view); the full
+	// field of view is twice it.
+	HalfField Field
+	// UnvignettedField is the largest field whose whole pencil passes
+	// every aperture (|y_chief| + |y_marginal| ≤ aperture everywhere).
+	UnvignettedField Field
+
+	chief Ray // chief ray for unit field (1 m height or 1 rad)
+}
+
+// Ray returns the ray at Start from field point f through relative pupil
+// coordinate rho (−1 and 1 are the pupil edges, 0 the chief ray):
+// chief(f) + rho·Marginal.
+func (a Apertures) Ray(f Field, rho float64) Ray {
+	k := float64(f.Height)
+	if a.Object.Infinite {
+		k = float64(f.Angle)
+	}
+	return Ray{
+		Y:     units.Length(k*float64(a.chief.Y) + rho*float64(a.Marginal.Y)),
+		Theta: units.Angle(k*float64(a.chief.Theta) + rho*float64(a.Marginal.Theta)),
+	}
+}
+
+// Chief returns the chief ray at Start for field point f, Ray(f, 0).
+func (a Apertures) Chief(f Field) Ray { return a.Ray(f, 0) }
+
+// start validates obj and returns the start plane of its rays.
+func (s System) start(obj Object) (units.Length, error) {
+	if len(s.elems) == 0 {
+		return 0, ErrEmpty
+	}
+	if obj.Infinite {
+		return min(0, s.elems[0].Z), nil
+	}
+	if !finite(float64(obj.Z)) {
+		return 0, ErrNonFinite
+	}
+	if first, _, ok := s.surfaces(); ok && obj.Z > s.elems[first].Z {
+		e := s.elems[first]
+		return 0, &ElementError{Index: first, Kind: e.Kind, Op: "Apertures", Param: "object position z", Value: float64(obj.Z), Length: true,
+			Reason: "must be at or before the first surface at z = " + e.Z.String()}
+	}
+	return obj.Z, nil
+}
+
+// prefix returns the matrix from the plane z0 (at or before every
+// surface) through elements 0..upto−1.
+func (s System) prefix(z0 units.Length, upto int, p Plane) Matrix {
+	m := Identity()
+	pos := z0
+	if pos < 0 {
+		m, pos = Space(-pos), 0
+	}
+	for _, e := range s.elems[:upto] {
+		if e.Kind == KindSpace {
+			end := e.Z + e.Length
+			if end <= pos {
+				continue
+			}
+			m = m.Then(Space(end - max(pos, e.Z)))
+			pos = end
+			continue
+		}
+		m = m.Then(e.matrix(p))
+	}
+	return m
+}
+
+// stopCandidate is an aperture position visited by a trace.
+type stopCandidate struct {
+	elem  int
+	z     units.Length
+	a     units.Length
+	after bool // the plane is after the element (space exit, or surface)
+}
+
+// apertureHeights calls f for every aperture met by ray r from z0, with
+// the ray height there.
+func (s System) apertureHeights(r Ray, z0 units.Length, p Plane, f func(c stopCandidate, y float64)) {
+	pos := z0
+	if pos < 0 {
+		r = Space(-pos).Apply(r)
+		pos = 0
+	}
+	for i, e := range s.elems {
+		if e.Kind == KindSpace {
+			end := e.Z + e.Length
+			if end <= pos && e.Length > 0 {
+				continue
+			}
+			if e.Aperture > 0 {
+				f(stopCandidate{elem: i, z: max(pos, e.Z), a: e.Aperture}, float64(r.Y))
+			}
+			r = Space(end - max(pos, e.Z)).Apply(r)
+			pos = end
+			if e.Aperture > 0 {
+				f(stopCandidate{elem: i, z: end, a: e.Aperture, after: true}, float64(r.Y))
+			}
+			continue
+		}
+		r = e.matrix(p).Apply(r)
+		if e.Aperture > 0 {
+			f(stopCandidate{elem: i, z: e.Z, a: e.Aperture, after: true}, float64(r.Y))
+		}
+	}
+}
+
+// Apertures finds the aperture stop, pupils, marginal and chief rays,
+// numerical apertures, f-numbers and field of view of s for object obj in
+// plane p (see [Apertures]). Clear apertures are set with
+// [Builder.Aperture]; an aperture on a space is checked at both ends.
+//
+// It returns [ErrEmpty] for an empty system, an [*ElementError] for an
+// object after the first surface, [ErrNonFinite] for a non-finite object
+// position, [ErrNoStop] if no aperture limits the axial pencil,
+// [ErrStopImaged] if the chief ray is undefined, and [ErrOverflow] if a
+// result is not finite.
+func (s System) Apertures(obj Object, p Plane) (Apertures, error) {
+	z0, err := s.start(obj)
+	if err != nil {
+		return Apertures{}, err
+	}
+	a := Apertures{Object: obj, Plane: p, Start: z0, Stop: -1, FieldStop: -1}
+	trial := Ray{Theta: 1}
+	if obj.Infinite {
+		trial = Ray{Y: 1}
+	}
+	best := math.Inf(1)
+	var stop stopCandidate
+	s.apertureHeights(trial, z0, p, func(c stopCandidate, y float64) {
+		if y == 0 {
+			return
+		}
+		if r := float64(c.a) / math.Abs(y); r < best {
+			best, stop = r, c
+		}
+	})
+	if math.IsInf(best, 1) {
+		return Apertures{}, ErrNoStop
+	}
+	a.Stop, a.StopZ, a.StopRadius = stop.elem, stop.z, stop.a
+	a.Marginal = Ray{Y: trial.Y * units.Length(best), Theta: trial.Theta * units.Angle(best)}
+
+	// Matrices from the start plane to the stop plane, and from the stop
+	// plane to the output plane.
+	split := stop.elem
+	if stop.after {
+		split++
+	}
+	pm := s.prefix(z0, split, p)
+	qm := s.product(split, len(s.elems), p)
+	// Entrance pupil: plane z with B = 0 from z to the stop, radius
+	// a/|A| (A is unchanged by the extra space).
+	if pm.A == 0 {
+		a.Entrance = Pupil{AtInfinity: true}
+	} else {
+		a.Entrance = Pupil{
+			Z:             z0 + units.Length(pm.B/pm.A),
+			Radius:        units.Length(float64(a.StopRadius) / math.Abs(pm.A)),
+			Magnification: 1 / pm.A,
+		}
+	}
+	// Exit pupil: image of the stop through qm.
+	if math.Abs(qm.D) <= 1e-12*(math.Abs(qm.A)+math.Abs(qm.D)) {
+		a.Exit = Pupil{AtInfinity: true}
+	} else {
+		m := qm.Det() / qm.D
+		a.Exit = Pupil{
+			Z:             s.length + units.Length(-qm.B/qm.D),
+			Radius:        units.Length(float64(a.StopRadius) * math.Abs(m)),
+			Magnification: m,
+		}
+	}
+
+	// Chief ray for unit field, through the centre of the stop:
+	// A y + B θ = 0 at the stop.
+	if obj.Infinite {
+		if pm.A == 0 {
+			return Apertures{}, ErrStopImaged
+		}
+		a.chief = Ray{Y: units.Length(-pm.B / pm.A), Theta: 1}
+	} else {
+		if pm.B == 0 {
+			return Apertures{}, ErrStopImaged
+		}
+		a.chief = Ray{Y: 1, Theta: units.Angle(-pm.A / pm.B)}
+	}
+
+	// Numerical apertures and f-numbers.
+	out := s.prefix(z0, len(s.elems), p).Apply(a.Marginal)
+	if !obj.Infinite {
+		a.ObjectNA = s.nIn * math.Abs(float64(a.Marginal.Theta))
+	}
+	a.ImageNA = s.nOut * math.Abs(float64(out.Theta))
+	if a.ImageNA > 0 {
+		a.WorkingFNumber = 1 / (2 * a.ImageNA)
+	}
+	if obj.Infinite && !a.Entrance.AtInfinity {
+		if c, err := s.Cardinal(p); err == nil && !c.Afocal {
+			a.FNumber = math.Abs(float64(c.EFL)) / (2 * float64(a.Entrance.Radius))
+		}
+	}
+
+	// Field stop and field of view from the chief and marginal heights.
+	type height struct {
+		c stopCandidate
+		y float64
+	}
+	var marg []height
+	s.apertureHeights(a.Marginal, z0, p, func(c stopCandidate, y float64) { marg = append(marg, height{c, y}) })
+	half, unvig := math.Inf(1), math.Inf(1)
+	k := 0
+	s.apertureHeights(a.chief, z0, p, func(c stopCandidate, y float64) {
+		ym := math.Abs(marg[k].y)
+		k++
+		if c == stop || y == 0 {
+			return
+		}
+		yc := math.Abs(y)
+		if r := float64(c.a) / yc; r < half {
+			half = r
+			a.FieldStop = c.elem
+		}
+		unvig = math.Min(unvig, math.Max(0, float64(c.a)-ym)/yc)
+	})
+	if a.FieldStop >= 0 {
+		if obj.Infinite {
+			a.HalfField = Field{Angle: units.Angle(half)}
+			a.UnvignettedField = Field{Angle: units.Angle(unvig)}
+		} else {
+			a.HalfField = Field{Height: units.Length(half)}
+			a.UnvignettedField = Field{Height: units.Length(unvig)}
+		}
+	}
+	for _, v := range []float64{float64(a.Entrance.Z), float64(a.Entrance.Radius), float64(a.Exit.Z), float64(a.Exit.Radius),
+		float64(a.chief.Y), float64(a.chief.Theta), float64(a.Marginal.Y), float64(a.Marginal.Theta), a.ImageNA} {
+		if !finite(v) {
+			return Apertures{}, ErrOverflow
+		}
+	}
+	return a, nil
+}
+
+// Step is one point of a traced ray: the ray just after element Element
+// (at the end of a space), at axial position Z.
+type Step struct {
+	// Element is the index of the element just passed; −1 for points in
+	// object space before the first element (the start point), Len() for
+	// the end point in the output space beyond the last element.
+	Element int
+	// Z is the axial position in metres.
+	Z units.Length
+	// Ray is the ray at Z, after the element.
+	Ray Ray
+	// Blocked reports that the ray's height exceeds the element's clear
+	// aperture (at either end of a space), by more than a relative 1e-9
+	// so that marginal rays constructed to graze the stop pass.
+	Blocked bool
+}
+
+// blocked reports |y| > a (with a relative margin), a > 0.
+func blocked(y units.Length, a units.Length) bool {
+	return a > 0 && math.Abs(float64(y)) > float64(a)*(1+1e-9)
+}
+
+// Trace traces ray r, given at axial position from, element by element to
+// position to (from ≤ to, both finite, metres from the input plane) in
+// plane p, and appends one [Step] per element met to dst[:0], plus the
+// start point and, if to lies beyond the last element, the end point.
+// Surfaces at from are included. Rays beyond a clear aperture are flagged
+// (Blocked) but traced on, so that a caller can draw or count them.
+// With a dst of sufficient capacity it does not allocate.
+//
+// It returns [ErrNonFinite] if from, to or r is not finite, [ErrOrder] if
+// from > to, and [ErrOverflow] if a ray overflows.
+func (s System) Trace(r Ray, from, to units.Length, p Plane, dst []Step) ([]Step, error) {
+	dst = dst[:0]
+	if !finite(float64(from)) || !finite(float64(to)) || !finite(float64(r.Y)) || !finite(float64(r.Theta)) {
+		return dst, ErrNonFinite
+	}
+	if from > to {
+		return dst, ErrOrder
+	}
+	dst = append(dst, Step{Element: -1, Z: from, Ray: r})
+	pos := from
+	if pos < 0 {
+		end := min(0, to)
+		r = Space(end - pos).Apply(r)
+		pos = end
+		if to < 0 {
+			dst = append(dst, Step{Element: -1, Z: to, Ray: r})
+		}
+	}
+	for i, e := range s.elems {
+		if e.Kind == KindSpace {
+			end := e.Z + e.Length
+			if end < pos || (end == pos && e.Length > 0) {
+				continue // entirely before the start
+			}
+			if e.Z > to || (e.Z == to && e.Length > 0) {
+				break
+			}
+			stop := min(end, to)
+			b := blocked(r.Y, e.Aperture)
+			r = Space(stop - max(pos, e.Z)).Apply(r)
+			pos = stop
+			dst = append(dst, Step{Element: i, Z: pos, Ray: r, Blocked: b || blocked(r.Y, e.Aperture)})
+			if end > to {
+				break
+			}
+			continue
+		}
+		if e.Z < pos {
+			continue
+		}
+		if e.Z > to {
+			break
+		}
+		r = e.matrix(p).Apply(r)
+		dst = append(dst, Step{Element: i, Z: e.Z, Ray: r, Blocked: blocked(r.Y, e.Aperture)})
+	}
+	if to > pos {
+		r = Space(to - pos).Apply(r)
+		dst = append(dst, Step{Element: len(s.elems), Z: to, Ray: r})
+	}
+	if !finite(float64(r.Y)) || !finite(float64(r.Theta)) {
+		return dst, ErrOverflow
+	}
+	return dst, nil
+}
+
+// Fan is a set of rays from one field point filling the entrance pupil,
+// traced through a system.
+type Fan struct {
+	// Field is the field point of the fan.
+	Field Field
+	// Pupil holds the relative pupil coordinate ρ of each ray, from −1 to
+	// 1.
+	Pupil []float64
+	// Rays holds the traced path of each ray, in the order of Pupil.
+	Rays [][]Step
+}
+
+// Fan traces n rays (n ≥ 1) from field point f through the entrance pupil
+// of a (computed by [System.Apertures] for s), at equally spaced pupil
+// coordinates ρ from −1 to 1 (n = 1 gives the chief ray alone), from
+// a.Start to position to. Blocked steps are flagged as in [System.Trace].
+//
+// It returns an error if n < 1 or the trace fails.
+func (s System) Fan(a Apertures, f Field, n int, to units.Length) (Fan, error) {
+	if n < 1 {
+		return Fan{}, errors.New("paraxial: Fan: ray count n = " + strconv.Itoa(n) + ": must be at least 1")
+	}
+	fan := Fan{Field: f, Pupil: make([]float64, n), Rays: make([][]Step, n)}
+	for i := range n {
+		rho := 0.0
+		if n > 1 {
+			rho = -1 + 2*float64(i)/float64(n-1)
+		}
+		steps, err := s.Trace(a.Ray(f, rho), a.Start, to, a.Plane, make([]Step, 0, len(s.elems)+2))
+		if err != nil {
+			return Fan{}, err
+		}
+		fan.Pupil[i], fan.Rays[i] = rho, steps
+	}
+	return fan, nil
+}

@@ -1,0 +1,165 @@
+package paraxial
+
+import (
+	"errors"
+	"math"
+
+	"github.com/beamnote/beamnote/opticslib/units"
+)
+
+// ErrEmpty is returned by the analyses ([System.Cardinal], [System.Image],
+// [System.Apertures] and friends) for a system without elements.
+var ErrEmpty = errors.New("paraxial: empty system (no elements)")
+
+// ErrAfocal is returned when a result needs optical power and the system
+// is afocal (see [Cardinal]), for example [System.ObjectFor].
+var ErrAfocal = errors.New("paraxial: system is afocal (C ≈ 0)")
+
+// AfocalTolerance is the relative threshold below which a system counts as
+// afocal: |C| ≤ AfocalTolerance·Σ|Cᵢ|, the sum over its surfaces of the
+// magnitudes of their own C entries. The sum sets the scale of powers in
+// the system, so the test does not depend on the length unit; 1e-9 is far
+// above rounding (≈1e-16 per operation, times the angular magnification)
+// and far below a deliberate defocus (an EFL of a billion times the
+// typical focal length is not an imaging system).
+const AfocalTolerance = 1e-9
+
+// Cardinal holds the first-order properties of a system in one plane:
+// power, focal lengths and the cardinal points, all positions absolute (z
+// in metres from the input plane). Distances are measured between the
+// first and the last surface (non-space element), so leading and trailing
+// spaces do not change them.
+//
+// With the lens matrix L = [[A, B], [C, D]] from the first to the last
+// surface (positions z₁, z₂), det L = n/n', Φ = −n'·C:
+//
+//	EFL  = 1/Φ                 FrontFocal  F  = z₁ + D/C
+//	f    = −n/Φ  (H to F)      RearFocal   F' = z₂ − A/C
+//	f'   = n'/Φ = −1/C (H' to F')
+//	FFL  = z₁ − F = −D/C       FrontPrincipal H  = z₁ + (D − det)/C
+//	BFL  = F' − z₂ = −A/C      RearPrincipal  H' = z₂ + (1 − A)/C
+//	                            FrontNodal N  = z₁ + (D − 1)/C
+//	                            RearNodal  N' = z₂ + (det − A)/C
+//
+// These follow from tracing the defining rays through L (a ray parallel to
+// the axis, one through the front focus, one of unit angular
+// magnification); see W. J. Smith, Modern Optical Engineering, 4th ed.,
+// ch. 2 [from memory], and reference-checks R27 for a single surface,
+// whose nodal points lie at its centre of curvature. In one medium N = H
+// and N' = H'.
+//
+// When the system is afocal (|C| ≤ [AfocalTolerance]·Σ|Cᵢ|), Afocal is
+// true, the focal quantities are zero rather than infinite, and
+// AngularMagnification = D and TransverseMagnification = A describe it
+// (A·D = det; a Kepler telescope has D = −f₁/f₂, reference-checks R31).
+type Cardinal struct {
+	// Plane is the plane analysed.
+	Plane Plane
+	// Afocal reports C ≈ 0.
+	Afocal bool
+	// IndexIn and IndexOut are the object- and image-space indices n, n'.
+	IndexIn, IndexOut float64
+	// FirstVertex and LastVertex are the positions z₁, z₂ of the first
+	// and the last surface.
+	FirstVertex, LastVertex units.Length
+	// Power is Φ = −n'·C in 1/m (dioptres).
+	Power float64
+	// EFL is the effective focal length 1/Φ (the focal length the system
+	// would have in air).
+	EFL units.Length
+	// FrontFocalLength f = −n/Φ (signed distance H → F) and
+	// RearFocalLength f' = n'/Φ (H' → F').
+	FrontFocalLength, RearFocalLength units.Length
+	// FFL is the front focal distance, from F to the first vertex
+	// (positive when F lies before it); BFL the back focal distance, from
+	// the last vertex to F'.
+	FFL, BFL units.Length
+	// FrontFocal and RearFocal are the positions of F and F'.
+	FrontFocal, RearFocal units.Length
+	// FrontPrincipal and RearPrincipal are the positions of H and H'.
+	FrontPrincipal, RearPrincipal units.Length
+	// FrontNodal and RearNodal are the positions of N and N'.
+	FrontNodal, RearNodal units.Length
+	// AngularMagnification (D) and TransverseMagnification (A) are set
+	// for an afocal system and zero otherwise.
+	AngularMagnification, TransverseMagnification float64
+}
+
+// surfaces returns the indices of the first and the last non-space element,
+// or ok = false if there is none.
+func (s System) surfaces() (first, last int, ok bool) {
+	first, last = -1, -1
+	for i, e := range s.elems {
+		if e.IsSurface() {
+			if first < 0 {
+				first = i
+			}
+			last = i
+		}
+	}
+	return first, last, first >= 0
+}
+
+// product returns the product of the matrices of elements i..j−1 in plane
+// p.
+func (s System) product(i, j int, p Plane) Matrix {
+	m := Identity()
+	for _, e := range s.elems[i:j] {
+		m = m.Then(e.matrix(p))
+	}
+	return m
+}
+
+// afocal reports whether m, the product of elements i..j−1, is afocal.
+func (s System) afocal(m Matrix, i, j int, p Plane) bool {
+	sum := 0.0
+	for _, e := range s.elems[i:j] {
+		sum += math.Abs(e.matrix(p).C)
+	}
+	return math.Abs(m.C) <= AfocalTolerance*sum
+}
+
+// Cardinal returns the power, focal lengths and cardinal points of s in
+// plane p (see [Cardinal] for the formulas). A system of spaces only is
+// afocal with unit magnifications, its vertices at z = 0.
+//
+// It returns [ErrEmpty] for an empty system and [ErrOverflow] if a
+// position overflows.
+func (s System) Cardinal(p Plane) (Cardinal, error) {
+	if len(s.elems) == 0 {
+		return Cardinal{}, ErrEmpty
+	}
+	c := Cardinal{Plane: p, IndexIn: s.nIn, IndexOut: s.nOut}
+	first, last, ok := s.surfaces()
+	if !ok {
+		c.Afocal, c.AngularMagnification, c.TransverseMagnification = true, 1, 1
+		return c, nil
+	}
+	z1, z2 := s.elems[first].Z, s.elems[last].Z
+	c.FirstVertex, c.LastVertex = z1, z2
+	l := s.product(first, last+1, p)
+	if s.afocal(l, first, last+1, p) {
+		c.Afocal, c.AngularMagnification, c.TransverseMagnification = true, l.D, l.A
+		return c, nil
+	}
+	det := l.Det()
+	inv := 1 / l.C
+	c.Power = -s.nOut * l.C
+	c.EFL = units.Length(1 / c.Power)
+	c.FrontFocalLength = units.Length(det * inv)
+	c.RearFocalLength = units.Length(-inv)
+	c.FFL = units.Length(-l.D * inv)
+	c.BFL = units.Length(-l.A * inv)
+	c.FrontFocal = z1 - c.FFL
+	c.RearFocal = z2 + c.BFL
+	c.FrontPrincipal = z1 + units.Length((l.D-det)*inv)
+	c.RearPrincipal = z2 + units.Length((1-l.A)*inv)
+	c.FrontNodal = z1 + units.Length((l.D-1)*inv)
+	c.RearNodal = z2 + units.Length((det-l.A)*inv)
+	for _, v := range []units.Length{c.EFL, c.FrontFocal, c.RearFocal, c.FrontPrincipal, c.RearPrincipal, c.FrontNodal, c.RearNodal} {
+		if !finite(float64(v)) {
+			return Cardinal{}, ErrOverflow
+		}
+	}
+	return c, nil
+}

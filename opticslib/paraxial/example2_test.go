@@ -1,0 +1,140 @@
+package paraxial_test
+
+import (
+	"fmt"
+
+	"github.com/beamnote/beamnote/opticslib/paraxial"
+	"github.com/beamnote/beamnote/opticslib/units"
+)
+
+func ExampleSystem_Cardinal() {
+	const mm = units.Millimeter
+	// An equi-biconvex lens, n = 1.5168, R = ±50 mm, 5 mm thick, 20 mm
+	// after the input plane (reference-checks R30).
+	sys, err := paraxial.NewBuilder().
+		Space(20*mm).
+		ThickLens(50*mm, -50*mm, 5*mm, 1.5168).Label("L1").
+		Space(60 * mm).
+		Build()
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	c, err := sys.Cardinal(paraxial.Tangential)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("EFL %.6f mm, BFL %.6f mm, FFL %.6f mm\n", c.EFL.Millimeters(), c.BFL.Millimeters(), c.FFL.Millimeters())
+	fmt.Printf("H at z = %.6f mm, H' at z = %.6f mm\n", c.FrontPrincipal.Millimeters(), c.RearPrincipal.Millimeters())
+	fmt.Printf("F' at z = %.6f mm\n", c.RearFocal.Millimeters())
+	// Output:
+	// EFL 49.212999 mm, BFL 47.536227 mm, FFL 47.536227 mm
+	// H at z = 21.676772 mm, H' at z = 23.323228 mm
+	// F' at z = 72.536227 mm
+}
+
+func ExampleSystem_Image() {
+	const mm = units.Millimeter
+	// A singlet f = 100 mm; where is the image of an object 150 mm
+	// before it, and where must the object go for 3× magnification?
+	sys, _ := paraxial.NewBuilder().ThinLens(100 * mm).Space(400 * mm).Build()
+	c, err := sys.Image(-150*mm, paraxial.Tangential)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("image at z = %.1f mm, m = %.3f\n", c.Image.Millimeters(), c.Magnification)
+	c, err = sys.ObjectFor(-3, paraxial.Tangential)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("object at z = %.3f mm, image at z = %.1f mm\n", c.Object.Millimeters(), c.Image.Millimeters())
+	// Output:
+	// image at z = 300.0 mm, m = -2.000
+	// object at z = -133.333 mm, image at z = 400.0 mm
+}
+
+func ExampleSystem_Apertures() {
+	const mm = units.Millimeter
+	// A camera lens f = 50 mm with an iris 10 mm in front of it and a
+	// 4 mm-radius sensor mask in the focal plane, object at infinity.
+	sys, _ := paraxial.NewBuilder().
+		Space(10 * mm).Diaphragm(4 * mm).Label("iris").
+		Space(10 * mm).ThinLens(50 * mm).Aperture(12 * mm).
+		Space(50 * mm).Diaphragm(4 * mm).Label("sensor").
+		Build()
+	a, err := sys.Apertures(paraxial.ObjectAtInfinity(), paraxial.Tangential)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("stop: element %d, entrance pupil z = %.1f mm, radius %.2f mm\n", a.Stop, a.Entrance.Z.Millimeters(), a.Entrance.Radius.Millimeters())
+	fmt.Printf("f-number %.2f, image NA %.3f\n", a.FNumber, a.ImageNA)
+	fmt.Printf("field stop: element %d, half field %.3f°\n", a.FieldStop, a.HalfField.Angle.Degrees())
+	// Output:
+	// stop: element 1, entrance pupil z = 10.0 mm, radius 4.00 mm
+	// f-number 6.25, image NA 0.080
+	// field stop: element 5, half field 4.584°
+}
+
+func ExampleSystem_WithSpace() {
+	const mm = units.Millimeter
+	// What if the object-to-lens spacing grows from 150 mm to 160 mm?
+	sys, _ := paraxial.NewBuilder().Space(150 * mm).ThinLens(100 * mm).Label("L").Space(300 * mm).Build()
+	alt, err := sys.WithSpace(0, 160*mm)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for _, s := range []paraxial.System{sys, alt} {
+		c, _ := s.Image(0, paraxial.Tangential)
+		fmt.Printf("lens at %v: image at z = %.2f mm, m = %.3f\n", s.Element(1).Z, c.Image.Millimeters(), c.Magnification)
+	}
+	// Output:
+	// lens at 150 mm: image at z = 450.00 mm, m = -2.000
+	// lens at 160 mm: image at z = 426.67 mm, m = -1.667
+}
+
+func ExampleBuilder_Append() {
+	const mm = units.Millimeter
+	// A 2× Kepler telescope used twice in series gives 4×.
+	tele, _ := paraxial.NewBuilder().ThinLens(50 * mm).Space(150 * mm).ThinLens(100 * mm).Build()
+	sys, _ := paraxial.NewBuilder().Append(tele).Space(50 * mm).Append(tele).Build()
+	c, _ := sys.Cardinal(paraxial.Tangential)
+	fmt.Printf("afocal %v, transverse magnification %.3f, %d elements\n", c.Afocal, c.TransverseMagnification, sys.Len())
+	// Output:
+	// afocal true, transverse magnification 4.000, 7 elements
+}
+
+func ExampleBuilder_Mirror() {
+	const mm = units.Millimeter
+	// A concave mirror of radius 200 mm folding the beam at 10° incidence:
+	// the tangential and sagittal foci split.
+	sys, _ := paraxial.NewBuilder().Mirror(-200*mm, 10*units.Degree).Space(100 * mm).Build()
+	t, _ := sys.Cardinal(paraxial.Tangential)
+	s, _ := sys.Cardinal(paraxial.Sagittal)
+	fmt.Printf("f_t = %.3f mm, f_s = %.3f mm\n", t.EFL.Millimeters(), s.EFL.Millimeters())
+	// Output:
+	// f_t = 98.481 mm, f_s = 101.543 mm
+}
+
+func ExampleSystem_Prescription() {
+	const mm = units.Millimeter
+	sys, _ := paraxial.NewBuilder().
+		Space(5*mm).
+		ThickLens(25*mm, paraxial.Flat, 3*mm, 1.5).Label("PCX").Aperture(6 * mm).
+		Space(45 * mm).
+		Build()
+	fmt.Print(sys.Prescription().Text())
+	// Output:
+	// Prescription
+	// #  element                           label  z (mm)  length (mm)  R / f (mm)  n after  tilt (°)  clear radius (mm)
+	// -  --------------------------------  -----  ------  -----------  ----------  -------  --------  -----------------
+	// 0  space                                    0.000   5.000                    1.0000
+	// 1  spherical interface (thick lens)  PCX    5.000                R 25.000    1.5000             6.000
+	// 2  space (thick lens)                PCX    5.000   3.000                    1.5000
+	// 3  planar interface (thick lens)     PCX    8.000                flat        1.0000             6.000
+	// 4  space                                    8.000   45.000                   1.0000
+}
