@@ -402,7 +402,8 @@ func (s System) Trace(r Ray, from, to units.Length, p Plane, dst []Step) ([]Step
 			dst = append(dst, Step{Element: -1, Z: to, Ray: r})
 		}
 	}
-	for i, e := range s.elems {
+	for i := range s.elems {
+		e := &s.elems[i] // not a copy: Element is large and this loop is hot
 		if e.Kind == KindSpace {
 			end := e.Z + e.Length
 			if end < pos || (end == pos && e.Length > 0) {
