@@ -25,8 +25,10 @@
 //	replace github.com/beamnote/beamnote => <checkout>
 //
 // with the checkout's requirements and go.sum, so cells import any opticslib
-// package with GOPROXY=off and no set-up cell. Every other invocation is
-// handed to the real go command unchanged.
+// package with GOPROXY=off and no set-up cell. With GOPROXY=off the wrapper
+// also skips gonb's bare per-cell "go get", which could fetch nothing: the
+// cells' "go build -mod=mod" adds any requirement the module cache holds.
+// Every other invocation is handed to the real go command unchanged.
 //
 // # Build cache
 //

@@ -145,6 +145,25 @@ func TestShimMakesCellModule(t *testing.T) {
 		t.Errorf("cell go.sum differs from the checkout's")
 	}
 
+	// With GOPROXY=off a bare "go get" in the cell module is skipped: it
+	// must succeed even with a main.go importing a module that is not
+	// required yet (go build -mod=mod adds it later).
+	if err := os.WriteFile(filepath.Join(cell, "main.go"), []byte("package main\nimport _ \"example.com/not/required\"\nfunc main() {}\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	cmd = exec.Command(l.shimPath(), "get")
+	cmd.Dir = cell
+	cmd.Env = append(os.Environ(), "GONB_TMP_DIR="+cell, "GOFLAGS=", "GOPROXY=off")
+	if out, err := cmd.CombinedOutput(); err != nil {
+		t.Errorf("shim get with GOPROXY=off: %v\n%s", err, out)
+	}
+	cmd = exec.Command(l.shimPath(), "get")
+	cmd.Dir = cell
+	cmd.Env = append(os.Environ(), "GONB_TMP_DIR="+cell, "GOFLAGS=", "GOPROXY=https://127.0.0.1:1")
+	if err := cmd.Run(); err == nil {
+		t.Errorf("shim get with a proxy: skipped, want the real go get (which fails here)")
+	}
+
 	// Outside gonb's directory the wrapper only forwards.
 	other := t.TempDir()
 	cmd = exec.Command(l.shimPath(), "mod", "init", "plain")

@@ -17,9 +17,16 @@ func (l Layout) shimScript() []byte {
 %s: written by "beamnote-kernel install"; do not edit.
 # When gonb creates its cell module ("go mod init" in $GONB_TMP_DIR), make the
 # checkout importable offline: require and replace %s and copy the
-# checkout's go.sum. Every other call goes to the real go command unchanged.
+# checkout's go.sum. With GOPROXY=off, gonb's per-cell "go get" (no package
+# arguments) is skipped: it could fetch nothing, and "go build -mod=mod" adds
+# any requirement that the module cache can satisfy by itself.
+# Every other call goes to the real go command unchanged.
 REAL_GO=%s
 ROOT=%s
+if [ "$1" = get ] && [ "$GOPROXY" = off ] && { [ $# = 1 ] || { [ $# = 2 ] && [ "$2" = -t ]; }; } &&
+	[ -n "$GONB_TMP_DIR" ] && [ "$(pwd -P)" = "$(cd "$GONB_TMP_DIR" && pwd -P)" ]; then
+	exit 0
+fi
 if [ "$1" = mod ] && [ "$2" = init ] && [ -n "$GONB_TMP_DIR" ] &&
 	[ "$(pwd -P)" = "$(cd "$GONB_TMP_DIR" && pwd -P)" ]; then
 	"$REAL_GO" "$@" || exit $?

@@ -3,6 +3,7 @@ package optplot
 import (
 	"bytes"
 	"errors"
+	"fmt"
 	"math"
 	"strconv"
 
@@ -11,6 +12,7 @@ import (
 	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
+	"gonum.org/v1/plot/vg/vgsvg"
 
 	"github.com/beamnote/beamnote/opticslib/beam"
 	"github.com/beamnote/beamnote/opticslib/paraxial"
@@ -410,15 +412,20 @@ func (wn *waistNotes) Plot(c draw.Canvas, plt *plot.Plot) {
 }
 
 // SVG renders p as an SVG document of the given size (for example
-// 16*vg.Centimeter by 9*vg.Centimeter) with p.WriterTo(width, height,
-// "svg"). Rendering the same plot twice gives identical bytes.
+// 16*vg.Centimeter by 9*vg.Centimeter). Rendering the same plot twice gives
+// identical bytes. It returns an error if a size is not positive and finite.
+//
+// It draws on a vgsvg canvas directly rather than through p.WriterTo, which
+// would link every gonum/plot back end (PDF, EPS, TeX, raster images) into
+// each notebook cell; the SVG bytes are the same.
 func SVG(p *plot.Plot, width, height vg.Length) ([]byte, error) {
-	w, err := p.WriterTo(width, height, "svg")
-	if err != nil {
-		return nil, err
+	if !(width > 0 && height > 0) || math.IsInf(float64(width), 0) || math.IsInf(float64(height), 0) {
+		return nil, fmt.Errorf("optplot: SVG size %v × %v: must be positive and finite", width, height)
 	}
+	c := vgsvg.NewWith(vgsvg.UseWH(width, height))
+	p.Draw(draw.New(c))
 	var buf bytes.Buffer
-	if _, err := w.WriteTo(&buf); err != nil {
+	if _, err := c.WriteTo(&buf); err != nil {
 		return nil, err
 	}
 	return buf.Bytes(), nil

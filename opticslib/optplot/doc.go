@@ -30,7 +30,8 @@
 // The layout drawing ([Layout]) is to scale along z and stretched in y by a
 // factor it prints in the lower left corner ("y scale ×3.2"). Lenses are
 // outlined from their radii and thickness and filled pale; plates are
-// outlined rectangles, mirrors a heavy line, diaphragms two short stops, and
+// outlined rectangles, mirrors a heavy line with a hatched back, diaphragms
+// two short stops, and
 // the aperture stop and pupils are labelled. Ray fans from each field point
 // ([FanLines]) share one colour per field point, with a small key.
 //
