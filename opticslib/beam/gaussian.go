@@ -21,11 +21,17 @@ var ErrNotPhysical = errors.New("not a physical beam (need finite q with Im q > 
 // Value is in SI units (metres for lengths, printed with units.Length when
 // Length is true).
 type ParamError struct {
-	Param  string
-	Value  float64
+	// Param names the parameter, for example "waist radius w0".
+	Param string
+	// Value is the offending value, in SI units (metres for lengths).
+	Value float64
+	// Length is true when Value is a length (printed with units.Length).
 	Length bool
+	// Reason states the requirement that Value fails, or is empty.
 	Reason string
-	Err    error
+	// Err is a wrapped sentinel ([ErrNotPhysical], [ErrIndexMismatch],
+	// [ErrMismatchedPlanes], paraxial.ErrNonFinite) or nil.
+	Err error
 }
 
 // Error implements the error interface.
@@ -306,9 +312,12 @@ func (g Gaussian) Transform(m paraxial.Matrix, nOut float64) Gaussian {
 //
 //	Δψ = −arg(A + B/q1)
 //
-// in radians, in (−π, π]. In free space it equals arctan(z2/zR) −
+// in radians, in [−π, π]. This is the phase of the 2-D (round-beam)
+// amplitude factor 1/(A + B/q1); a 1-D (one transverse direction) factor
+// carries half of it, so the fundamental mode of a simple-astigmatic beam
+// advances by (Δψx + Δψy)/2. In free space it equals arctan(z2/zR) −
 // arctan(z1/zR); a thin lens or interface adds zero. The result is reduced
-// to (−π, π]; for systems with several foci, accumulate it element by
+// to [−π, π]; for systems with several foci, accumulate it element by
 // element (as [Sample] does).
 func (g Gaussian) GouyShift(m paraxial.Matrix) units.Angle {
 	return units.Angle(-cmplx.Phase(complex(m.A, 0) + complex(m.B, 0)/g.Q))

@@ -140,6 +140,89 @@ func TestThinLensSelfR10(t *testing.T) {
 	}
 }
 
+func TestVirtualWaistSelf(t *testing.T) {
+	// A negative lens makes a virtual waist, on the input side of the
+	// lens (S. A. Self, Appl. Opt. 22, 658 (1983): the thin-lens law holds
+	// for f < 0 and gives s'' < 0). Inputs: λ = 632.8 nm, w0 = 0.2 mm at
+	// s before f = −50 mm. Waists reports the absolute position
+	// lens + s'', which lies behind the lens. ABCD vs Self's closed form:
+	// rel 1e-9, as in R10 (the two differ by a few roundings).
+	const closed = 1e-9
+	f := -0.050
+	for _, s := range []float64{0, 0.1, 0.3} {
+		in := mustWaist(t, 0.2*mm, 0, 632.8*nm, 1)
+		b := paraxial.NewBuilder()
+		if s > 0 {
+			b.Space(units.Length(s))
+		}
+		sys := mustBuild(t, b.ThinLens(units.Length(f)).Space(0.2))
+		ws, err := Waists(sys, in)
+		if err != nil {
+			t.Errorf("s = %g: Waists error: %v", s, err)
+			continue
+		}
+		got := ws[len(ws)-2] // just after the lens
+		sSelf, mSelf := selfWaist(s, f, float64(in.RayleighRange()))
+		if !(sSelf < 0) || !(float64(got.Z) < s) {
+			t.Errorf("s = %g: waist at %v (Self s'' = %g m), want a virtual waist before the lens at %g m", s, got.Z, sSelf, s)
+		}
+		if !scalar.EqualWithinAbsOrRel(float64(got.Z)-s, sSelf, 0, closed) || !scalar.EqualWithinAbsOrRel(float64(got.Radius), mSelf*0.2e-3, 0, closed) {
+			t.Errorf("s = %g: virtual waist %v at s'' = %g m, want %g m at %g m (Self)", s, got.Radius, float64(got.Z)-s, mSelf*0.2e-3, sSelf)
+		}
+		// A real focus does not exist after a negative lens here: Sample
+		// reports only the input waist (at z = 0, when s > 0).
+		c, err := Sample(sys, in, 20)
+		if err != nil {
+			t.Errorf("s = %g: Sample error: %v", s, err)
+			continue
+		}
+		for _, fc := range c.Foci {
+			if fc.Z != 0 {
+				t.Errorf("s = %g: Sample reports a real focus at %v after a negative lens", s, fc.Z)
+			}
+		}
+	}
+}
+
+func TestSampleBeforeInput(t *testing.T) {
+	// SampleRange may start before the input plane: the samples there lie
+	// in the input medium and must agree with At (the matrix path), also
+	// when the first element is a surface at z = 0. Two code paths: rel
+	// 1e-12. The accumulated Gouy phase from z0 = −zR to the input waist
+	// is arctan(1) = π/4 (Kogelnik & Li 1966), rel 1e-12.
+	const tol = 1e-12
+	in := mustWaist(t, 0.5*mm, 0, 632.8*nm, 1)
+	zR := float64(in.RayleighRange())
+	for _, test := range []struct {
+		name string
+		b    *paraxial.Builder
+	}{
+		{"lens first", paraxial.NewBuilder().ThinLens(0.2).Space(0.3)},
+		{"space first", paraxial.NewBuilder().Space(0.1).ThinLens(0.2).Space(0.3)},
+		{"interface first", paraxial.NewBuilder().Interface(0.1, 1.5).Space(0.3)},
+	} {
+		sys := mustBuild(t, test.b)
+		c, err := SampleRange(sys, in, units.Length(-zR), sys.Length(), 9)
+		if err != nil {
+			t.Errorf("%s: SampleRange error: %v", test.name, err)
+			continue
+		}
+		for i, z := range c.Z {
+			g, err := At(sys, in, units.Length(z))
+			if err != nil {
+				t.Errorf("%s: At(%g) error: %v", test.name, z, err)
+				continue
+			}
+			if !scalar.EqualWithinAbsOrRel(c.W[i], float64(g.Radius()), 0, tol) || c.Index[i] != g.Index {
+				t.Errorf("%s: z = %g: caustic w %g n %g, At w %g n %g", test.name, z, c.W[i], c.Index[i], float64(g.Radius()), g.Index)
+			}
+			if z == 0 && !scalar.EqualWithinAbsOrRel(c.Gouy[i], math.Pi/4, 0, tol) {
+				t.Errorf("%s: Gouy phase from −zR to the waist = %.15g, want π/4", test.name, c.Gouy[i])
+			}
+		}
+	}
+}
+
 func TestFocusCollimatedR12(t *testing.T) {
 	// reference-checks R12 [X]: λ = 1.064 µm, waist w = 2 mm at a lens
 	// f = 100 mm. With s = 0 Self's form gives s'' = f/(1 + (f/zR)²) and
@@ -351,7 +434,7 @@ func TestErrors(t *testing.T) {
 		{e7, "beam: sample count n = 1: must be at least 2", nil},
 		{e8, "beam: system length = 0 m: must be positive to sample; use SampleRange", nil},
 		{e9, "beam: end z1 = 1 m: must be finite and greater than z0 = 1 m", nil},
-		{e10, paraxial.ErrNonFinite.Error(), paraxial.ErrNonFinite},
+		{e10, "beam: position z = NaN m: " + paraxial.ErrNonFinite.Error(), paraxial.ErrNonFinite},
 		{e11, "beam: input beam index n = 1: system input index is 1.5: beam index differs from the system input index", ErrIndexMismatch},
 	} {
 		if test.err == nil {

@@ -122,7 +122,7 @@ type Clip struct {
 // Warning returns a one-line warning when the aperture passes less than
 // the threshold, for example
 //
-//	L2 (z = 200 mm): clear aperture radius 4 mm passes 96.4 % of the beam (w = 3.1 mm), below 99 %
+//	L2 (z = 200 mm): clear aperture radius 4 mm passes 96.42 % of the beam (w = 3.1 mm), below 99.00 %
 //
 // and "" otherwise.
 func (c Clip) Warning() string {
@@ -137,8 +137,8 @@ func (c Clip) Warning() string {
 		" passes " + percent(c.Transmission) + " of the beam (" + w + "), below " + percent(c.MinTransmission)
 }
 
-// percent formats a fraction as a percentage with three significant
-// digits, or more when needed to tell it from 100 %.
+// percent formats a fraction as a percentage with two decimals, or more
+// (up to six) when needed to tell a value below 100 % from 100 %.
 func percent(f float64) string {
 	p := 100 * f
 	prec := 2
@@ -230,11 +230,14 @@ type Irradiance struct {
 	Peak []float64
 	// Max is the largest value of Peak, in W/m², found at MaxZ (metres)
 	// where the beam radii are MaxW and MaxWY (metres). The caustic
-	// samples every real waist, so for a round beam Max is exact.
+	// samples every real waist, so for a round beam Max is exact; for a
+	// beam with separate x and y foci the true maximum of 1/(wx wy) lies
+	// between them and Max is the largest sampled value.
 	Max         float64
 	MaxZ        units.Length
 	MaxW, MaxWY units.Length
-	Note        string
+	// Note is [SafetyNote]; show it wherever the values are shown.
+	Note string
 }
 
 // Irradiance returns the on-axis peak irradiance 2P/(π wx wy) along c for

@@ -138,7 +138,8 @@ func TestIrradiance(t *testing.T) {
 	// Peak irradiance along a caustic, 2P/(π wx wy) (R09), and the safety
 	// note in every summary (project rule). The maximum sits at the focus,
 	// which the sampler includes: it must equal 2P/(π W0²) of the R12 focus
-	// (rel 1e-12).
+	// (rel 1e-12: the same waist through the tracer and through Waists,
+	// a few roundings each).
 	in := mustWaist(t, 2*mm, 0, 1.064*um, 1)
 	sys := mustBuild(t, paraxial.NewBuilder().ThinLens(0.1).Space(0.2))
 	c, err := Sample(sys, in, 50)

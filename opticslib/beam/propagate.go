@@ -47,6 +47,20 @@ func checkInput(sys paraxial.System, in Input) (Astigmatic, error) {
 	return a, nil
 }
 
+// matricesTo returns the tangential and sagittal matrices from the input
+// plane to z. A non-finite z is a [*ParamError] that wraps
+// [paraxial.ErrNonFinite].
+func matricesTo(sys paraxial.System, z units.Length) (mx, my paraxial.Matrix, err error) {
+	if !finite(float64(z)) {
+		return mx, my, &ParamError{Param: "position z", Value: float64(z), Length: true, Err: paraxial.ErrNonFinite}
+	}
+	if mx, err = sys.MatrixTo(z); err != nil {
+		return mx, my, err
+	}
+	my, err = sys.MatrixToY(z)
+	return mx, my, err
+}
+
 // At returns the round beam at position z (metres from the input plane) of
 // sys, given the round beam in at the input plane. It uses
 // [paraxial.System.MatrixTo] and [paraxial.System.IndexAt], so surfaces
@@ -61,11 +75,7 @@ func At(sys paraxial.System, in Gaussian, z units.Length) (Gaussian, error) {
 	if _, err := checkInput(sys, in); err != nil {
 		return Gaussian{}, err
 	}
-	mx, err := sys.MatrixTo(z)
-	if err != nil {
-		return Gaussian{}, err
-	}
-	my, err := sys.MatrixToY(z)
+	mx, my, err := matricesTo(sys, z)
 	if err != nil {
 		return Gaussian{}, err
 	}
@@ -89,11 +99,7 @@ func AtXY(sys paraxial.System, in Input, z units.Length) (Astigmatic, error) {
 	if err != nil {
 		return Astigmatic{}, err
 	}
-	mx, err := sys.MatrixTo(z)
-	if err != nil {
-		return Astigmatic{}, err
-	}
-	my, err := sys.MatrixToY(z)
+	mx, my, err := matricesTo(sys, z)
 	if err != nil {
 		return Astigmatic{}, err
 	}
@@ -534,6 +540,10 @@ func (t *tracer) advance(z float64) {
 			continue
 		}
 		if end > z {
+			// z lies before this element: only the input medium can
+			// remain (the tracer started before z = 0), so propagate
+			// in it up to z, never past the element's entrance.
+			t.space(min(z, float64(e.Z)) - t.pos)
 			return
 		}
 		t.space(float64(e.Z) - t.pos) // zero unless the tracer started before z = 0

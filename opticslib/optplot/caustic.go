@@ -254,7 +254,7 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (*plot.Plot, e
 			t := beam.CircularTransmission(units.Length(mk.Aperture*1e-3), units.Length(wx), units.Length(wyy))
 			mk.Clipped = t < cfg.minT
 			if mk.Clipped && mk.Label != "" {
-				mk.Label += " · passes " + strconv.FormatFloat(100*t, 'f', 1, 64) + " %"
+				mk.Label += " · passes " + below(t, cfg.minT)
 			}
 			// A stop far outside the beam would only squash the
 			// envelope: draw a default-height bar instead.
@@ -301,6 +301,23 @@ func sampleAt(zs, w, wy []float64, z float64) (float64, float64) {
 	return w[best], wy[best]
 }
 
+// below formats the transmitted fraction t < threshold as a percentage
+// with one decimal, or more (up to four) when one decimal would round it
+// up to the threshold or beyond: 0.98996 against 99 % reads "98.996 %",
+// not "99.0 %".
+func below(t, threshold float64) string {
+	prec := 1
+	s := strconv.FormatFloat(100*t, 'f', prec, 64)
+	for prec < 4 {
+		if v, err := strconv.ParseFloat(s, 64); err == nil && v < 100*threshold {
+			break
+		}
+		prec++
+		s = strconv.FormatFloat(100*t, 'f', prec, 64)
+	}
+	return s + " %"
+}
+
 func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 
 // note is one waist annotation, in plot units (mm).
@@ -318,7 +335,26 @@ type waistNotes struct {
 	style text.Style
 }
 
-var _ plot.Plotter = (*waistNotes)(nil)
+var (
+	_ plot.Plotter     = (*waistNotes)(nil)
+	_ plot.DataRanger  = (*waistNotes)(nil)
+	_ plot.Thumbnailer = (*waistNotes)(nil)
+)
+
+// DataRange implements plot.DataRanger: the waist positions and ±w0, in
+// mm; the unit range (0, 1, −1, 1) without notes.
+func (wn *waistNotes) DataRange() (xmin, xmax, ymin, ymax float64) {
+	return barRange(len(wn.notes), func(i int) (float64, float64) { return wn.notes[i].z, wn.notes[i].w0 })
+}
+
+// Thumbnail implements plot.Thumbnailer with the two short waist bars.
+func (wn *waistNotes) Thumbnail(c *draw.Canvas) {
+	bar := draw.LineStyle{Color: envelopeColor, Width: vg.Points(1.2)}
+	x := (c.Min.X + c.Max.X) / 2
+	d := (c.Max.X - c.Min.X) / 4
+	c.StrokeLine2(bar, x-d, c.Max.Y, x+d, c.Max.Y)
+	c.StrokeLine2(bar, x-d, c.Min.Y, x+d, c.Min.Y)
+}
 
 func newWaistNotes(c beam.Caustic, astig bool, zmin, zmax float64) *waistNotes {
 	wn := &waistNotes{style: text.Style{Color: labelColor, XAlign: draw.XCenter, YAlign: draw.YBottom, Handler: plot.DefaultTextHandler}}
@@ -359,12 +395,7 @@ func newWaistNotes(c beam.Caustic, astig bool, zmin, zmax float64) *waistNotes {
 // Plot implements plot.Plotter.
 func (wn *waistNotes) Plot(c draw.Canvas, plt *plot.Plot) {
 	trX, trY := plt.Transforms(&c)
-	sty := wn.style
-	sty.Font = plt.X.Tick.Label.Font
-	sty.Font.Size = vg.Points(7.5)
-	if sty.Handler == nil {
-		sty.Handler = plt.TextHandler
-	}
+	sty := withFont(wn.style, plt, 7.5)
 	lineH := sty.FontExtents().Height
 	base := c.Min.Y + vg.Points(3)
 	tick := vg.Points(3.5)

@@ -9,6 +9,7 @@ import (
 	"strings"
 	"testing"
 
+	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
 
 	"github.com/beamnote/beamnote/opticslib/beam"
@@ -54,7 +55,13 @@ func render(t testing.TB) []byte {
 	if err != nil {
 		t.Fatalf("Caustic error: %v", err)
 	}
-	svg, err := SVG(p, 16*vg.Centimeter, 9*vg.Centimeter)
+	return mustSVG(t, p, 16*vg.Centimeter, 9*vg.Centimeter)
+}
+
+// mustSVG renders p with [SVG] and fails the test on error.
+func mustSVG(t testing.TB, p *plot.Plot, w, h vg.Length) []byte {
+	t.Helper()
+	svg, err := SVG(p, w, h)
 	if err != nil {
 		t.Fatalf("SVG error: %v", err)
 	}
@@ -85,14 +92,10 @@ func astigmatic(t testing.TB) []byte {
 	if err != nil {
 		t.Fatalf("Caustic error: %v", err)
 	}
-	svg, err := SVG(p, 16*vg.Centimeter, 9*vg.Centimeter)
-	if err != nil {
-		t.Fatalf("SVG error: %v", err)
-	}
-	return svg
+	return mustSVG(t, p, 16*vg.Centimeter, 9*vg.Centimeter)
 }
 
-func TestCausticDeterministic(t *testing.T) {
+func TestGoldenSVG(t *testing.T) {
 	// Golden-image practice of gonum/plot (cmpimg; bytes.Equal for SVG):
 	// two renderings of the same input must be byte-identical, and equal to
 	// the stored golden file.
@@ -100,8 +103,9 @@ func TestCausticDeterministic(t *testing.T) {
 		name   string
 		render func(testing.TB) []byte
 	}{
-		{"caustic_expander.svg", func(t testing.TB) []byte { return render(t) }},
+		{"caustic_expander.svg", render},
 		{"caustic_astigmatic.svg", astigmatic},
+		{"layout_relay.svg", relayLayout},
 	} {
 		a := test.render(t)
 		b := test.render(t)
@@ -183,6 +187,46 @@ func TestCausticErrors(t *testing.T) {
 	} {
 		if _, err := Caustic(test.c, sys); err != ErrCaustic {
 			t.Errorf("%s: Caustic error = %v, want ErrCaustic", test.name, err)
+		}
+	}
+}
+
+func TestBelow(t *testing.T) {
+	// A clipping label must never read as the threshold or more: one
+	// decimal unless that rounds up to the threshold (rounding rule of
+	// strconv 'f' formatting; the cases are chosen by hand).
+	for _, test := range []struct {
+		t, threshold float64
+		want         string
+	}{
+		{0.944, 0.99, "94.4 %"},
+		{0.98996, 0.99, "98.996 %"},
+		{0.98951, 0.99, "98.95 %"},
+		{0.999949, 0.99995, "99.99 %"},
+		{0.5, 1, "50.0 %"},
+	} {
+		if got := below(test.t, test.threshold); got != test.want {
+			t.Errorf("below(%g, %g) = %q, want %q", test.t, test.threshold, got, test.want)
+		}
+	}
+}
+
+func TestEmptyPlotterRanges(t *testing.T) {
+	// Plotters without data report a finite unit range, never ±Inf
+	// (gonum/plot rejects non-finite axis ranges).
+	for _, test := range []struct {
+		name string
+		r    interface {
+			DataRange() (float64, float64, float64, float64)
+		}
+	}{
+		{"Marks", &Marks{}},
+		{"waistNotes", &waistNotes{}},
+		{"FanLines", &FanLines{}},
+	} {
+		a, b, c, d := test.r.DataRange()
+		if !finite(a) || !finite(b) || !finite(c) || !finite(d) || !(a < b && c < d) {
+			t.Errorf("%s DataRange() = %g, %g, %g, %g; want a finite non-empty range", test.name, a, b, c, d)
 		}
 	}
 }

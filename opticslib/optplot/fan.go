@@ -50,8 +50,6 @@ type FanLines struct {
 	Fans []FanPaths
 	// Width is the line width (default 0.7 pt).
 	Width vg.Length
-
-	xmin, xmax float64
 }
 
 var (
@@ -184,6 +182,7 @@ func (r *FanLines) Thumbnail(c *draw.Canvas) {
 // layFanThumb is the legend entry of one fan: two converging strokes.
 type layFanThumb struct{ sty draw.LineStyle }
 
+// Thumbnail implements plot.Thumbnailer.
 func (f *layFanThumb) Thumbnail(c *draw.Canvas) {
 	y := (c.Min.Y + c.Max.Y) / 2
 	h := (c.Max.Y - c.Min.Y) / 3

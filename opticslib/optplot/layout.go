@@ -143,7 +143,6 @@ func Layout(sys paraxial.System, fans []paraxial.Fan, opts ...LayoutOption) (*pl
 	p.X.Min, p.X.Max = xmin, xmax
 	p.Y.Min, p.Y.Max = -1.75*ym, 1.45*ym
 	out.xmin, out.xmax = xmin, xmax
-	rays.xmin, rays.xmax = xmin, xmax
 	return p, nil
 }
 
@@ -390,14 +389,7 @@ func layCurve(trX, trY func(float64) vg.Length, z0, r, y0, y1 float64, n int) []
 // Plot implements plot.Plotter.
 func (o *Outline) Plot(c draw.Canvas, plt *plot.Plot) {
 	trX, trY := plt.Transforms(&c)
-	lbl := o.Label
-	if lbl.Font.Size == 0 {
-		lbl.Font = plt.X.Tick.Label.Font
-		lbl.Font.Size = vg.Points(7)
-	}
-	if lbl.Handler == nil {
-		lbl.Handler = plt.TextHandler
-	}
+	lbl := withFont(o.Label, plt, 7)
 	// Optical axis across the drawn range.
 	c.StrokeLines(o.Axis, c.ClipLinesX([]vg.Point{{X: trX(plt.X.Min), Y: trY(0)}, {X: trX(plt.X.Max), Y: trY(0)}})...)
 

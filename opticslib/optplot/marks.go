@@ -129,14 +129,7 @@ func defaultLabel(e paraxial.Element) string {
 // Plot implements plot.Plotter.
 func (m *Marks) Plot(c draw.Canvas, plt *plot.Plot) {
 	trX, trY := plt.Transforms(&c)
-	lbl := m.Label
-	if lbl.Font.Size == 0 {
-		lbl.Font = plt.X.Tick.Label.Font
-		lbl.Font.Size = vg.Points(8)
-	}
-	if lbl.Handler == nil {
-		lbl.Handler = plt.TextHandler
-	}
+	lbl := withFont(m.Label, plt, 8)
 	head := vg.Points(4)
 	lineHeight := lbl.FontExtents().Height
 	var (
@@ -198,15 +191,40 @@ func (m *Marks) Plot(c draw.Canvas, plt *plot.Plot) {
 }
 
 // DataRange implements plot.DataRanger: the bar positions and heights, in
-// mm.
+// mm. Without marks it is the unit range (0, 1, −1, 1), so that an empty
+// Marks never gives the plot an infinite range.
 func (m *Marks) DataRange() (xmin, xmax, ymin, ymax float64) {
+	return barRange(len(m.Marks), func(i int) (float64, float64) { return m.Marks[i].Z, m.Marks[i].HalfHeight })
+}
+
+// barRange returns the data range of n vertical bars, bar i at position
+// and half-height at(i), symmetric about the axis: the unit range (0, 1,
+// −1, 1) when n is 0.
+func barRange(n int, at func(i int) (z, half float64)) (xmin, xmax, ymin, ymax float64) {
+	if n == 0 {
+		return 0, 1, -1, 1
+	}
 	xmin, xmax = math.Inf(1), math.Inf(-1)
 	ymin, ymax = math.Inf(1), math.Inf(-1)
-	for _, mk := range m.Marks {
-		xmin, xmax = math.Min(xmin, mk.Z), math.Max(xmax, mk.Z)
-		ymin, ymax = math.Min(ymin, -mk.HalfHeight), math.Max(ymax, mk.HalfHeight)
+	for i := range n {
+		z, h := at(i)
+		xmin, xmax = math.Min(xmin, z), math.Max(xmax, z)
+		ymin, ymax = math.Min(ymin, -h), math.Max(ymax, h)
 	}
 	return xmin, xmax, ymin, ymax
+}
+
+// withFont returns s with the plot's tick-label font at size points when
+// s has no font size, and the plot's text handler when s has none.
+func withFont(s text.Style, plt *plot.Plot, size float64) text.Style {
+	if s.Font.Size == 0 {
+		s.Font = plt.X.Tick.Label.Font
+		s.Font.Size = vg.Points(size)
+	}
+	if s.Handler == nil {
+		s.Handler = plt.TextHandler
+	}
+	return s
 }
 
 // Thumbnail implements plot.Thumbnailer with a short vertical bar.

@@ -75,8 +75,22 @@ type Pupil struct {
 // marginal ray height there, is smallest (W. J. Smith, Modern Optical
 // Engineering, 4th ed., ch. 6 [from memory]); the field stop is the
 // element other than the stop with the smallest ratio of clear aperture to
-// chief-ray height. Pupils are the images of the stop through the
-// elements before it (entrance) and after it (exit).
+// chief-ray height. Of apertures equal within a relative 1e-9 (equal by
+// design), the first met is chosen. Pupils are the images of the stop
+// through the elements before it (entrance) and after it (exit).
+//
+// With P = [[A, B], [C, D]] the matrix from the start plane to the stop
+// and Q the matrix from the stop to the output plane,
+//
+//	entrance pupil  z = Start + B/A,  radius = stop radius/|A|
+//	exit pupil      z = Length − Q.B/Q.D,  magnification det Q/Q.D
+//	chief ray       y = −B/A at θ = 1 (object at infinity),
+//	                θ = −A/B at y = 1 (finite object)
+//
+// A pupil is at infinity (telecentric), and the chief ray undefined, when
+// the deciding entry (A, Q.D or B) is zero to within 1e-12 of the size of
+// the terms that cancel in it, far above rounding; it is never reported
+// at a huge finite distance.
 type Apertures struct {
 	// Object and Plane are the inputs of the analysis.
 	Object Object
@@ -141,41 +155,57 @@ func (s System) start(obj Object) (units.Length, error) {
 		return 0, ErrEmpty
 	}
 	if obj.Infinite {
-		return min(0, s.elems[0].Z), nil
+		return 0, nil
 	}
 	if !finite(float64(obj.Z)) {
 		return 0, ErrNonFinite
 	}
-	if first, _, ok := s.surfaces(); ok && obj.Z > s.elems[first].Z {
-		e := s.elems[first]
-		return 0, &ElementError{Index: first, Kind: e.Kind, Op: "Apertures", Param: "object position z", Value: float64(obj.Z), Length: true,
-			Reason: "must be at or before the first surface at z = " + e.Z.String()}
+	for i, e := range s.elems {
+		if !e.IsSurface() {
+			continue
+		}
+		if obj.Z > e.Z {
+			return 0, &ElementError{Index: i, Kind: e.Kind, Op: "Apertures", Param: "object position z", Value: float64(obj.Z), Length: true,
+				Reason: "must be at or before the first surface at z = " + e.Z.String()}
+		}
+		break
 	}
 	return obj.Z, nil
 }
 
 // prefix returns the matrix from the plane z0 (at or before every
-// surface) through elements 0..upto−1.
-func (s System) prefix(z0 units.Length, upto int, p Plane) Matrix {
-	m := Identity()
+// surface) through elements 0..upto−1, and the product of the entrywise
+// magnitudes (the scale for nearZero).
+func (s System) prefix(z0 units.Length, upto int, p Plane) (m, bound Matrix) {
+	m = Identity()
 	pos := z0
 	if pos < 0 {
 		m, pos = Space(-pos), 0
 	}
+	bound = m.abs()
 	for _, e := range s.elems[:upto] {
+		var em Matrix
 		if e.Kind == KindSpace {
 			end := e.Z + e.Length
 			if end <= pos {
 				continue
 			}
-			m = m.Then(Space(end - max(pos, e.Z)))
+			em = Space(end - max(pos, e.Z))
 			pos = end
-			continue
+		} else {
+			em = e.matrix(p)
 		}
-		m = m.Then(e.matrix(p))
+		m, bound = m.Then(em), bound.Then(em.abs())
 	}
-	return m
+	return m, bound
 }
+
+// tieTolerance is the relative margin by which an aperture must be
+// smaller than an earlier one to replace it as the aperture or field stop,
+// so that apertures equal by design (two identical lenses of a relay) are
+// resolved in favour of the first rather than by rounding. It is the
+// margin of [Step.Blocked].
+const tieTolerance = 1e-9
 
 // stopCandidate is an aperture position visited by a trace.
 type stopCandidate struct {
@@ -186,11 +216,14 @@ type stopCandidate struct {
 }
 
 // apertureHeights calls f for every aperture met by ray r from z0, with
-// the ray height there.
-func (s System) apertureHeights(r Ray, z0 units.Length, p Plane, f func(c stopCandidate, y float64)) {
+// the ray height y there and the bound yb, the same height traced with the
+// entrywise magnitudes of the matrices (the scale for nearZero).
+func (s System) apertureHeights(r Ray, z0 units.Length, p Plane, f func(c stopCandidate, y, yb float64)) {
+	rb := Ray{Y: units.Length(math.Abs(float64(r.Y))), Theta: units.Angle(math.Abs(float64(r.Theta)))}
+	apply := func(m Matrix) { r, rb = m.Apply(r), m.abs().Apply(rb) }
 	pos := z0
 	if pos < 0 {
-		r = Space(-pos).Apply(r)
+		apply(Space(-pos))
 		pos = 0
 	}
 	for i, e := range s.elems {
@@ -200,18 +233,18 @@ func (s System) apertureHeights(r Ray, z0 units.Length, p Plane, f func(c stopCa
 				continue
 			}
 			if e.Aperture > 0 {
-				f(stopCandidate{elem: i, z: max(pos, e.Z), a: e.Aperture}, float64(r.Y))
+				f(stopCandidate{elem: i, z: max(pos, e.Z), a: e.Aperture}, float64(r.Y), float64(rb.Y))
 			}
-			r = Space(end - max(pos, e.Z)).Apply(r)
+			apply(Space(end - max(pos, e.Z)))
 			pos = end
 			if e.Aperture > 0 {
-				f(stopCandidate{elem: i, z: end, a: e.Aperture, after: true}, float64(r.Y))
+				f(stopCandidate{elem: i, z: end, a: e.Aperture, after: true}, float64(r.Y), float64(rb.Y))
 			}
 			continue
 		}
-		r = e.matrix(p).Apply(r)
+		apply(e.matrix(p))
 		if e.Aperture > 0 {
-			f(stopCandidate{elem: i, z: e.Z, a: e.Aperture, after: true}, float64(r.Y))
+			f(stopCandidate{elem: i, z: e.Z, a: e.Aperture, after: true}, float64(r.Y), float64(rb.Y))
 		}
 	}
 }
@@ -238,11 +271,11 @@ func (s System) Apertures(obj Object, p Plane) (Apertures, error) {
 	}
 	best := math.Inf(1)
 	var stop stopCandidate
-	s.apertureHeights(trial, z0, p, func(c stopCandidate, y float64) {
-		if y == 0 {
-			return
+	s.apertureHeights(trial, z0, p, func(c stopCandidate, y, yb float64) {
+		if nearZero(y, yb) {
+			return // an aperture in an image of the object plane limits no pencil
 		}
-		if r := float64(c.a) / math.Abs(y); r < best {
+		if r := float64(c.a) / math.Abs(y); r < best*(1-tieTolerance) {
 			best, stop = r, c
 		}
 	})
@@ -258,11 +291,12 @@ func (s System) Apertures(obj Object, p Plane) (Apertures, error) {
 	if stop.after {
 		split++
 	}
-	pm := s.prefix(z0, split, p)
-	qm := s.product(split, len(s.elems), p)
+	pm, pb := s.prefix(z0, split, p)
+	qm, qb := s.product(split, len(s.elems), p)
 	// Entrance pupil: plane z with B = 0 from z to the stop, radius
-	// a/|A| (A is unchanged by the extra space).
-	if pm.A == 0 {
+	// a/|A| (A is unchanged by the extra space). A ≈ 0 (the stop in the
+	// rear focal plane of the optics before it) puts it at infinity.
+	if nearZero(pm.A, pb.A) {
 		a.Entrance = Pupil{AtInfinity: true}
 	} else {
 		a.Entrance = Pupil{
@@ -272,7 +306,7 @@ func (s System) Apertures(obj Object, p Plane) (Apertures, error) {
 		}
 	}
 	// Exit pupil: image of the stop through qm.
-	if math.Abs(qm.D) <= 1e-12*(math.Abs(qm.A)+math.Abs(qm.D)) {
+	if nearZero(qm.D, qb.D) {
 		a.Exit = Pupil{AtInfinity: true}
 	} else {
 		m := qm.Det() / qm.D
@@ -286,19 +320,20 @@ func (s System) Apertures(obj Object, p Plane) (Apertures, error) {
 	// Chief ray for unit field, through the centre of the stop:
 	// A y + B θ = 0 at the stop.
 	if obj.Infinite {
-		if pm.A == 0 {
+		if a.Entrance.AtInfinity {
 			return Apertures{}, ErrStopImaged
 		}
 		a.chief = Ray{Y: units.Length(-pm.B / pm.A), Theta: 1}
 	} else {
-		if pm.B == 0 {
+		if nearZero(pm.B, pb.B) {
 			return Apertures{}, ErrStopImaged
 		}
 		a.chief = Ray{Y: 1, Theta: units.Angle(-pm.A / pm.B)}
 	}
 
 	// Numerical apertures and f-numbers.
-	out := s.prefix(z0, len(s.elems), p).Apply(a.Marginal)
+	whole, _ := s.prefix(z0, len(s.elems), p)
+	out := whole.Apply(a.Marginal)
 	if !obj.Infinite {
 		a.ObjectNA = s.nIn * math.Abs(float64(a.Marginal.Theta))
 	}
@@ -318,17 +353,17 @@ func (s System) Apertures(obj Object, p Plane) (Apertures, error) {
 		y float64
 	}
 	var marg []height
-	s.apertureHeights(a.Marginal, z0, p, func(c stopCandidate, y float64) { marg = append(marg, height{c, y}) })
+	s.apertureHeights(a.Marginal, z0, p, func(c stopCandidate, y, _ float64) { marg = append(marg, height{c, y}) })
 	half, unvig := math.Inf(1), math.Inf(1)
 	k := 0
-	s.apertureHeights(a.chief, z0, p, func(c stopCandidate, y float64) {
+	s.apertureHeights(a.chief, z0, p, func(c stopCandidate, y, yb float64) {
 		ym := math.Abs(marg[k].y)
 		k++
-		if c == stop || y == 0 {
-			return
+		if c == stop || nearZero(y, yb) {
+			return // the chief ray crosses the axis here: no field limit
 		}
 		yc := math.Abs(y)
-		if r := float64(c.a) / yc; r < half {
+		if r := float64(c.a) / yc; r < half*(1-tieTolerance) {
 			half = r
 			a.FieldStop = c.elem
 		}
@@ -371,7 +406,7 @@ type Step struct {
 
 // blocked reports |y| > a (with a relative margin), a > 0.
 func blocked(y units.Length, a units.Length) bool {
-	return a > 0 && math.Abs(float64(y)) > float64(a)*(1+1e-9)
+	return a > 0 && math.Abs(float64(y)) > float64(a)*(1+tieTolerance)
 }
 
 // Trace traces ray r, given at axial position from, element by element to

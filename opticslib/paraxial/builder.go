@@ -25,7 +25,7 @@ import (
 // [Builder.Plate], which add a [Component] of three elements (surface,
 // glass space, surface), and [Builder.Append], which adds a whole
 // sub-system. [Builder.Label] and [Builder.Aperture] act on what the most
-// recent call added.
+// recent call added (nothing, after appending an empty system).
 type Builder struct {
 	elems []Element
 	comps []Component
@@ -42,7 +42,20 @@ func NewBuilder() *Builder {
 	return &Builder{n: 1, comp: -1}
 }
 
-func validIndex(n float64) bool { return n > 0 && !math.IsInf(n, 0) } // NaN fails n > 0
+// MinIndex and MaxIndex bound the refractive indices the [Builder]
+// accepts. Every optical material lies far inside (X-ray indices 1 − δ
+// with δ ~ 1e-6, germanium ≈ 4 in the infrared), and the bounds keep the
+// index ratios n/n' of a long system, and so det M, clear of float64
+// underflow (an index of 1e-300 made det M round to 0).
+const (
+	MinIndex = 1e-3
+	MaxIndex = 1e3
+)
+
+// indexReason is the requirement stated in errors for a bad index.
+const indexReason = "must be finite and in [1e-3, 1e3]"
+
+func validIndex(n float64) bool { return n >= MinIndex && n <= MaxIndex } // NaN fails
 
 func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 
@@ -68,9 +81,18 @@ func (b *Builder) checkTilt(k Kind, aoi units.Angle) bool {
 	return true
 }
 
-// Medium sets the refractive index n (dimensionless, > 0, finite) of the
-// input medium. It must be called before the first element; later changes
-// of index are made with [Builder.Interface] or
+// checkFocal validates a thin-lens focal length: nonzero and finite.
+func (b *Builder) checkFocal(k Kind, f units.Length) bool {
+	if !finite(float64(f)) || f == 0 {
+		b.fail(k, "focal length f", float64(f), true, "must be nonzero and finite")
+		return false
+	}
+	return true
+}
+
+// Medium sets the refractive index n (dimensionless, between [MinIndex]
+// and [MaxIndex]) of the input medium. It must be called before the first
+// element; later changes of index are made with [Builder.Interface] or
 // [Builder.PlanarInterface]. The default is 1.
 func (b *Builder) Medium(n float64) *Builder {
 	if b.err != nil {
@@ -81,7 +103,7 @@ func (b *Builder) Medium(n float64) *Builder {
 		return b
 	}
 	if !validIndex(n) {
-		b.err = &ElementError{Index: 0, Op: "Medium", Param: "index n", Value: n, Reason: "must be positive and finite"}
+		b.err = &ElementError{Index: 0, Op: "Medium", Param: "index n", Value: n, Reason: indexReason}
 		return b
 	}
 	b.n = n
@@ -120,8 +142,7 @@ func (b *Builder) ThinLens(f units.Length) *Builder {
 	if b.err != nil {
 		return b
 	}
-	if !finite(float64(f)) || f == 0 {
-		b.fail(KindThinLens, "focal length f", float64(f), true, "must be nonzero and finite")
+	if !b.checkFocal(KindThinLens, f) {
 		return b
 	}
 	b.begin()
@@ -132,8 +153,8 @@ func (b *Builder) ThinLens(f units.Length) *Builder {
 
 // Interface appends a spherical refracting surface of radius r (metres,
 // nonzero, finite; r > 0 when the centre of curvature lies after the vertex)
-// from the current medium into a medium of index n2 (> 0, finite); its
-// matrix is [SphericalInterface](r, n, n2). Use [Builder.PlanarInterface]
+// from the current medium into a medium of index n2 (between [MinIndex]
+// and [MaxIndex]); its matrix is [SphericalInterface](r, n, n2). Use [Builder.PlanarInterface]
 // for a flat surface.
 func (b *Builder) Interface(r units.Length, n2 float64) *Builder {
 	if b.err != nil {
@@ -144,7 +165,7 @@ func (b *Builder) Interface(r units.Length, n2 float64) *Builder {
 		return b
 	}
 	if !validIndex(n2) {
-		b.fail(KindSphericalInterface, "index n2", n2, false, "must be positive and finite")
+		b.fail(KindSphericalInterface, "index n2", n2, false, indexReason)
 		return b
 	}
 	b.begin()
@@ -155,14 +176,14 @@ func (b *Builder) Interface(r units.Length, n2 float64) *Builder {
 }
 
 // PlanarInterface appends a flat refracting surface from the current medium
-// into a medium of index n2 (> 0, finite); its matrix is
+// into a medium of index n2 (between [MinIndex] and [MaxIndex]); its matrix is
 // [PlanarInterface](n, n2).
 func (b *Builder) PlanarInterface(n2 float64) *Builder {
 	if b.err != nil {
 		return b
 	}
 	if !validIndex(n2) {
-		b.fail(KindPlanarInterface, "index n2", n2, false, "must be positive and finite")
+		b.fail(KindPlanarInterface, "index n2", n2, false, indexReason)
 		return b
 	}
 	b.begin()
@@ -185,8 +206,8 @@ func surface(r units.Length, n1, n2 float64) Element {
 
 // ThickLens appends a lens of front radius r1, back radius r2 (metres,
 // nonzero, not NaN; [Flat] for a plane side), centre thickness t (metres,
-// > 0, finite) and index n (> 0, finite) in the current medium. It adds
-// three elements: the front surface at the current position, a space of
+// > 0, finite) and index n (between [MinIndex] and [MaxIndex]) in the
+// current medium. It adds three elements: the front surface at the current position, a space of
 // length t in index n, and the back surface at the current position + t,
 // grouped as a [Component] of kind [KindThickLens]. The matrix of the
 // three is [ThickLens](r1, r2, t, n, n0).
@@ -206,7 +227,7 @@ func (b *Builder) ThickLens(r1, r2, t units.Length, n float64) *Builder {
 		return b
 	}
 	if !validIndex(n) {
-		b.fail(KindThickLens, "index n", n, false, "must be positive and finite")
+		b.fail(KindThickLens, "index n", n, false, indexReason)
 		return b
 	}
 	b.begin()
@@ -221,8 +242,8 @@ func (b *Builder) ThickLens(r1, r2, t units.Length, n float64) *Builder {
 }
 
 // Plate appends a plane-parallel plate (window, cover glass, filter) of
-// thickness t (metres, > 0, finite) and index n (> 0, finite) in the
-// current medium, tilted so that the axis ray meets it at angle of
+// thickness t (metres, > 0, finite) and index n (between [MinIndex] and
+// [MaxIndex]) in the current medium, tilted so that the axis ray meets it at angle of
 // incidence aoi (radians, |aoi| < π/2; 0 for normal incidence). It adds a
 // [Component] of kind [KindPlate]: a planar entrance surface, a space in
 // the glass whose length is the axis ray's path t/cos θ', and a planar
@@ -244,7 +265,7 @@ func (b *Builder) Plate(t units.Length, n float64, aoi units.Angle) *Builder {
 		return b
 	}
 	if !validIndex(n) {
-		b.fail(KindPlate, "index n", n, false, "must be positive and finite")
+		b.fail(KindPlate, "index n", n, false, indexReason)
 		return b
 	}
 	if !b.checkTilt(KindPlate, aoi) {
@@ -300,8 +321,7 @@ func (b *Builder) CylindricalLens(f units.Length, p Plane) *Builder {
 	if b.err != nil {
 		return b
 	}
-	if !finite(float64(f)) || f == 0 {
-		b.fail(KindCylindricalLens, "focal length f", float64(f), true, "must be nonzero and finite")
+	if !b.checkFocal(KindCylindricalLens, f) {
 		return b
 	}
 	if p != Tangential && p != Sagittal {
@@ -379,7 +399,7 @@ func (b *Builder) Append(sub System) *Builder {
 		return b
 	}
 	if !validIndex(sub.nIn) {
-		b.err = &ElementError{Index: len(b.elems), Op: "Append", Param: "sub-system input index", Value: sub.nIn, Reason: "must be positive and finite (build the sub-system with a Builder)"}
+		b.err = &ElementError{Index: len(b.elems), Op: "Append", Param: "sub-system input index", Value: sub.nIn, Reason: indexReason + " (build the sub-system with a Builder)"}
 		return b
 	}
 	if math.Abs(sub.nIn-b.n) > 1e-12*b.n {
@@ -455,9 +475,11 @@ func (b *Builder) Aperture(radius units.Length) *Builder {
 func (b *Builder) Err() error { return b.err }
 
 // Build returns the assembled system, or the first error met by the
-// setters. It returns [ErrOverflow] if the total length or an entry of the
-// system matrix is not finite (finite but extreme inputs, such as
-// Space(1e300) followed by ThinLens(1e-300), can overflow). An empty
+// setters. If the total length or an entry of the system matrix is not
+// finite (finite but extreme inputs, such as Space(1e300) followed by
+// ThinLens(1e-300), can overflow), it returns an [*ElementError] naming
+// the element at which the running product overflowed and wrapping
+// [ErrOverflow]. An empty
 // builder yields an empty system of length 0 whose matrix is the identity;
 // the analyses ([System.Cardinal], [System.Image], [System.Apertures])
 // reject it with [ErrEmpty].

@@ -5,9 +5,14 @@ import (
 	"math"
 	"testing"
 
+	"gonum.org/v1/gonum/floats/scalar"
+
 	"github.com/beamnote/beamnote/opticslib/units"
 )
 
+// TestBuilderErrors checks that every invalid parameter is reported as an
+// *ElementError naming the element index, kind, parameter and value, and
+// that the first error is kept.
 func TestBuilderErrors(t *testing.T) {
 	nan, inf := math.NaN(), math.Inf(1)
 	for _, test := range []struct {
@@ -27,11 +32,11 @@ func TestBuilderErrors(t *testing.T) {
 		{"zero radius", NewBuilder().Interface(0, 1.5),
 			"paraxial: element 0 (spherical interface): radius R = 0 m: must be nonzero and finite (use PlanarInterface for a flat surface)", nil},
 		{"bad n2", NewBuilder().Space(1).Interface(0.1, -1.5),
-			"paraxial: element 1 (spherical interface): index n2 = -1.5: must be positive and finite", nil},
+			"paraxial: element 1 (spherical interface): index n2 = -1.5: must be finite and in [1e-3, 1e3]", nil},
 		{"planar zero n", NewBuilder().PlanarInterface(0),
-			"paraxial: element 0 (planar interface): index n2 = 0: must be positive and finite", nil},
+			"paraxial: element 0 (planar interface): index n2 = 0: must be finite and in [1e-3, 1e3]", nil},
 		{"medium nan", NewBuilder().Medium(nan),
-			"paraxial: Medium at element 0: index n = NaN: must be positive and finite", nil},
+			"paraxial: Medium at element 0: index n = NaN: must be finite and in [1e-3, 1e3]", nil},
 		{"medium late", NewBuilder().Space(1).Medium(1.5),
 			"paraxial: Medium at element 1: index n = 1.5: medium can only be set before the first element; use an interface to change index", ErrMediumAfterElements},
 		{"label first", NewBuilder().Label("L1"),
@@ -43,7 +48,43 @@ func TestBuilderErrors(t *testing.T) {
 		{"sticky first error", NewBuilder().ThinLens(0).Space(-1).Interface(0, 0),
 			"paraxial: element 0 (thin lens): focal length f = 0 m: must be nonzero and finite", nil},
 		{"overflow", NewBuilder().Space(1e300).ThinLens(1e-300).Space(1e300),
-			ErrOverflow.Error(), ErrOverflow},
+			"paraxial: element 1 (thin lens): matrix entry overflowed (not finite)", ErrOverflow},
+		{"thick lens zero radius", NewBuilder().Space(1).ThickLens(0, -0.05, 0.005, 1.5),
+			"paraxial: element 1 (thick lens): front radius R1 = 0 m: must be nonzero and not NaN (use paraxial.Flat for a flat side)", nil},
+		{"thick lens NaN R2", NewBuilder().ThickLens(0.05, units.Length(nan), 0.005, 1.5),
+			"paraxial: element 0 (thick lens): back radius R2 = NaN m: must be nonzero and not NaN (use paraxial.Flat for a flat side)", nil},
+		{"thick lens negative thickness", NewBuilder().ThickLens(0.05, -0.05, -2*mm, 1.5),
+			"paraxial: element 0 (thick lens): centre thickness t = -2 mm: must be positive and finite", nil},
+		{"thick lens bad index", NewBuilder().ThickLens(0.05, -0.05, 2*mm, 0),
+			"paraxial: element 0 (thick lens): index n = 0: must be finite and in [1e-3, 1e3]", nil},
+		{"plate inf thickness", NewBuilder().Plate(units.Length(inf), 1.5, 0),
+			"paraxial: element 0 (plate): thickness t = +Inf m: must be positive and finite", nil},
+		{"plate index NaN", NewBuilder().Plate(1*mm, nan, 0),
+			"paraxial: element 0 (plate): index n = NaN: must be finite and in [1e-3, 1e3]", nil},
+		{"plate 90°", NewBuilder().Plate(1*mm, 1.5, math.Pi/2),
+			"paraxial: element 0 (plate): angle of incidence θ = 1.5707963267948966: must be finite with |θ| < π/2 rad", nil},
+		{"plate TIR", NewBuilder().Medium(1.5).Plate(1*mm, 1, 60*units.Degree),
+			"paraxial: element 0 (plate): angle of incidence θ = 1.0471975511965976: is beyond the critical angle for n0 = 1.5 into n = 1", nil},
+		{"mirror zero radius", NewBuilder().Space(1).ThinLens(1).Mirror(0, 0),
+			"paraxial: element 2 (mirror): radius R = 0 m: must be nonzero and not NaN (use paraxial.Flat for a flat mirror)", nil},
+		{"mirror NaN tilt", NewBuilder().Mirror(-1, units.Angle(nan)),
+			"paraxial: element 0 (mirror): angle of incidence θ = NaN: must be finite with |θ| < π/2 rad", nil},
+		{"cylinder zero f", NewBuilder().CylindricalLens(0, Sagittal),
+			"paraxial: element 0 (cylindrical lens): focal length f = 0 m: must be nonzero and finite", nil},
+		{"cylinder bad plane", NewBuilder().CylindricalLens(1, Plane(7)),
+			"paraxial: element 0 (cylindrical lens): plane = 7: must be Tangential or Sagittal", nil},
+		{"matrix NaN", NewBuilder().Matrix(Matrix{A: 1, B: nan, D: 1}, Identity()),
+			"paraxial: element 0 (matrix): X.B = NaN: must be finite", nil},
+		{"matrix det", NewBuilder().Matrix(Identity(), Matrix{A: 2, D: 1}),
+			"paraxial: element 0 (matrix): det Y = 2: must be 1 (the element keeps the medium)", nil},
+		{"diaphragm zero", NewBuilder().Space(1).Diaphragm(0),
+			"paraxial: element 1 (diaphragm): opening radius = 0 m: must be positive and finite", nil},
+		{"aperture on thick lens", NewBuilder().Space(1).ThickLens(0.05, -0.05, 2*mm, 1.5).Aperture(-1),
+			"paraxial: element 1 (thick lens): aperture radius = -1 m: must be non-negative and finite", nil},
+		{"append unbuilt", NewBuilder().Append(System{}),
+			"paraxial: Append at element 0: sub-system input index = 0: must be finite and in [1e-3, 1e3] (build the sub-system with a Builder)", nil},
+		{"append index", NewBuilder().Append(mustBuild(t, NewBuilder().Medium(1.33).Space(1))),
+			"paraxial: Append at element 0: sub-system input index = 1.33: must equal the current index 1", nil},
 	} {
 		_, err := test.b.Build()
 		if err == nil {
@@ -60,7 +101,7 @@ func TestBuilderErrors(t *testing.T) {
 			t.Errorf("%s: errors.Is(err, %v) = false", test.name, test.is)
 		}
 		var ee *ElementError
-		if test.is != ErrOverflow && !errors.As(err, &ee) {
+		if !errors.As(err, &ee) {
 			t.Errorf("%s: error %T is not an *ElementError", test.name, err)
 		}
 	}
@@ -155,6 +196,18 @@ func FuzzBuilder(f *testing.F) {
 			m := s.PlaneMatrix(p)
 			if !m.finite() {
 				t.Fatalf("Build() succeeded with a non-finite %v matrix %+v", p, m)
+			}
+			// det = n_in/n_out (R27). Each user matrix may be off by 1e-9
+			// and up to 32 elements are composed; rounding in the product
+			// is bounded by N·ε times the product of the entrywise
+			// magnitudes (Higham 2002, §3.5 [from memory]), which with
+			// extreme lengths (1e300 m) can dwarf the entries themselves.
+			// Allow 1e-7 of that bound's Ā·D̄ + B̄·C̄.
+			_, bound := s.product(0, s.Len(), p)
+			if scale := bound.A*bound.D + bound.B*bound.C; finite(scale) {
+				if want := s.IndexIn() / s.IndexOut(); !scalar.EqualWithinAbsOrRel(m.Det(), want, 1e-7*scale, 1e-7) {
+					t.Fatalf("%v det = %.17g, want n_in/n_out = %.17g (matrix %+v)", p, m.Det(), want, m)
+				}
 			}
 			if _, err := s.MatrixBetween(s.Length()/4, s.Length()/2, p); err != nil && err != ErrOverflow {
 				t.Fatalf("MatrixBetween error: %v", err)

@@ -27,8 +27,10 @@ const AfocalTolerance = 1e-9
 // Cardinal holds the first-order properties of a system in one plane:
 // power, focal lengths and the cardinal points, all positions absolute (z
 // in metres from the input plane). Distances are measured between the
-// first and the last surface (non-space element), so leading and trailing
-// spaces do not change them.
+// first and the last optical surface (an element other than a space or a
+// [KindDiaphragm]), so leading and trailing spaces, irises and field masks
+// do not change them: the BFL of a lens followed by a sensor mask is
+// measured from the lens.
 //
 // With the lens matrix L = [[A, B], [C, D]] from the first to the last
 // surface (positions z₁, z₂), det L = n/n', Φ = −n'·C:
@@ -85,12 +87,13 @@ type Cardinal struct {
 	AngularMagnification, TransverseMagnification float64
 }
 
-// surfaces returns the indices of the first and the last non-space element,
-// or ok = false if there is none.
-func (s System) surfaces() (first, last int, ok bool) {
+// vertices returns the indices of the first and the last optical surface
+// (an element other than a space or a diaphragm, whose matrices are the
+// identity), or ok = false if there is none.
+func (s System) vertices() (first, last int, ok bool) {
 	first, last = -1, -1
 	for i, e := range s.elems {
-		if e.IsSurface() {
+		if e.IsSurface() && e.Kind != KindDiaphragm {
 			if first < 0 {
 				first = i
 			}
@@ -101,13 +104,14 @@ func (s System) surfaces() (first, last int, ok bool) {
 }
 
 // product returns the product of the matrices of elements i..j−1 in plane
-// p.
-func (s System) product(i, j int, p Plane) Matrix {
-	m := Identity()
+// p, and the product of their entrywise magnitudes (the scale for nearZero).
+func (s System) product(i, j int, p Plane) (m, bound Matrix) {
+	m, bound = Identity(), Identity()
 	for _, e := range s.elems[i:j] {
 		m = m.Then(e.matrix(p))
+		bound = bound.Then(e.matrix(p).abs())
 	}
-	return m
+	return m, bound
 }
 
 // afocal reports whether m, the product of elements i..j−1, is afocal.
@@ -120,8 +124,9 @@ func (s System) afocal(m Matrix, i, j int, p Plane) bool {
 }
 
 // Cardinal returns the power, focal lengths and cardinal points of s in
-// plane p (see [Cardinal] for the formulas). A system of spaces only is
-// afocal with unit magnifications, its vertices at z = 0.
+// plane p (see [Cardinal] for the formulas). A system of spaces and
+// diaphragms only is afocal with unit magnifications, its vertices at
+// z = 0.
 //
 // It returns [ErrEmpty] for an empty system and [ErrOverflow] if a
 // position overflows.
@@ -130,14 +135,14 @@ func (s System) Cardinal(p Plane) (Cardinal, error) {
 		return Cardinal{}, ErrEmpty
 	}
 	c := Cardinal{Plane: p, IndexIn: s.nIn, IndexOut: s.nOut}
-	first, last, ok := s.surfaces()
+	first, last, ok := s.vertices()
 	if !ok {
 		c.Afocal, c.AngularMagnification, c.TransverseMagnification = true, 1, 1
 		return c, nil
 	}
 	z1, z2 := s.elems[first].Z, s.elems[last].Z
 	c.FirstVertex, c.LastVertex = z1, z2
-	l := s.product(first, last+1, p)
+	l, _ := s.product(first, last+1, p)
 	if s.afocal(l, first, last+1, p) {
 		c.Afocal, c.AngularMagnification, c.TransverseMagnification = true, l.D, l.A
 		return c, nil

@@ -71,6 +71,12 @@
 // axis. Elements are numbered from 0 in the order they were added to the
 // [Builder]; error messages use the same numbering.
 //
+// Focal distances (FFL, BFL), vertices and real/virtual flags refer to
+// the first and last optical surface; a [KindDiaphragm] (iris, field
+// mask) is not an optical surface. Zero tests on computed matrix entries
+// (pupils at infinity, stop conjugate to the object) are relative to the
+// size of the terms that cancel in the entry, never exact comparisons.
+//
 // # Tangential and sagittal planes
 //
 // Every element carries a tangential (X) and a sagittal (Y) matrix. They
@@ -97,7 +103,9 @@
 // [Builder]: the first bad value (NaN, ±Inf, n ≤ 0, negative thickness,
 // zero radius, …) is kept (a sticky error) and returned by [Builder.Build]
 // as an [*ElementError] naming the element index, kind, parameter and
-// value. Analyses return sentinel errors ([ErrEmpty], [ErrAfocal],
+// value; an overflow of the composed matrix (finite but extreme inputs) is
+// an [*ElementError] wrapping [ErrOverflow] that names the element where
+// it happened. Analyses return sentinel errors ([ErrEmpty], [ErrAfocal],
 // [ErrNoStop], …) rather than NaN or Inf; degenerate but meaningful
 // results (an afocal system, a pupil at infinity) are reported by flags
 // with zero values, never by infinities. The one deliberate infinity is

@@ -19,7 +19,9 @@ var ErrSplitComponent = errors.New("range cuts through a component (thick lens o
 var ErrIndexChange = errors.New("replacement changes the refractive index at its boundary")
 
 // assemble copies elems and comps, sets the positions Z, fills in the
-// component geometry and composes the matrices.
+// component geometry and composes the matrices. If a running product or
+// position overflows it returns an [*ElementError] naming the element
+// after which that happened and wrapping [ErrOverflow].
 func assemble(elems []Element, comps []Component, nIn, nOut float64) (System, error) {
 	s := System{
 		elems:   append([]Element(nil), elems...),
@@ -36,6 +38,9 @@ func assemble(elems []Element, comps []Component, nIn, nOut float64) (System, er
 		z += e.Length
 		s.matrixX = s.matrixX.Then(e.X)
 		s.matrixY = s.matrixY.Then(e.Y)
+		if !s.matrixX.finite() || !s.matrixY.finite() || !finite(float64(z)) {
+			return System{}, &ElementError{Index: i, Kind: e.Kind, Err: ErrOverflow}
+		}
 	}
 	s.length = z
 	for i := range s.comps {
@@ -48,9 +53,6 @@ func assemble(elems []Element, comps []Component, nIn, nOut float64) (System, er
 			c.Tilt = front.Tilt
 			c.Thickness = glass.Length * units.Length(math.Cos(float64(back.Tilt)))
 		}
-	}
-	if !s.matrixX.finite() || !s.matrixY.finite() || !finite(float64(s.length)) {
-		return System{}, ErrOverflow
 	}
 	return s, nil
 }
@@ -74,8 +76,8 @@ func (s System) checkIndex(i int, op string) {
 // lens or plate changes its thickness.
 //
 // It returns an [*ElementError] if element i is not a space or d is
-// invalid, and [ErrOverflow] if the new system overflows. It panics if i
-// is out of range.
+// invalid, and an [*ElementError] wrapping [ErrOverflow] if the new system
+// overflows. It panics if i is out of range.
 func (s System) WithSpace(i int, d units.Length) (System, error) {
 	s.checkIndex(i, "WithSpace")
 	e := s.elems[i]
@@ -100,8 +102,9 @@ func (s System) WithSpace(i int, d units.Length) (System, error) {
 // It returns an [*ElementError] wrapping [ErrSplitComponent] if [i, j)
 // cuts through a component, and one wrapping [ErrIndexChange] if sub does
 // not start in the medium before element i and end in the medium after
-// element j−1 (relative tolerance 1e-12). It panics if 0 ≤ i ≤ j ≤ Len()
-// does not hold.
+// element j−1 (relative tolerance 1e-12), and one wrapping [ErrOverflow]
+// if the new system overflows. It panics if 0 ≤ i ≤ j ≤ Len() does not
+// hold.
 func (s System) Replace(i, j int, sub System) (System, error) {
 	if i < 0 || j < i || j > len(s.elems) {
 		panic("paraxial: Replace: range [" + strconv.Itoa(i) + ", " + strconv.Itoa(j) + ") invalid for " + strconv.Itoa(len(s.elems)) + " elements")
@@ -202,9 +205,9 @@ func (s System) Lookup(name string) (i, j int, ok bool) {
 // EFL is unchanged (analytic identities; Gerrard & Burch 1975, §II.7
 // [from memory]).
 //
-// It returns [ErrOverflow] if the reversed product overflows, which for a
-// system that built without overflow can happen only at the edge of the
-// float64 range.
+// It returns an [*ElementError] wrapping [ErrOverflow] if the reversed
+// product overflows, which for a system that built without overflow can
+// happen only at the edge of the float64 range.
 func (s System) Reverse() (System, error) {
 	n := len(s.elems)
 	elems := make([]Element, n)

@@ -3,6 +3,7 @@ package paraxial
 import (
 	"errors"
 	"strconv"
+	"strings"
 
 	"github.com/beamnote/beamnote/opticslib/units"
 )
@@ -58,7 +59,7 @@ func (e *ElementError) Error() string {
 		s += ": " + e.Reason
 	}
 	if e.Err != nil {
-		s += ": " + e.Err.Error()
+		s += ": " + strings.TrimPrefix(e.Err.Error(), "paraxial: ")
 	}
 	return s
 }

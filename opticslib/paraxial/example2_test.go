@@ -138,3 +138,30 @@ func ExampleSystem_Prescription() {
 	// 3  planar interface (thick lens)     PCX    8.000                flat        1.0000             6.000
 	// 4  space                                    8.000   45.000                   1.0000
 }
+
+func ExampleSystem_Fan() {
+	const mm = units.Millimeter
+	// A ray fan from an object point 2 mm off axis, 200 mm before a
+	// 100 mm lens of clear radius 10 mm: every ray meets again in the
+	// image plane at 2f, at −2 mm (magnification −1).
+	sys, _ := paraxial.NewBuilder().ThinLens(100 * mm).Aperture(10 * mm).Space(200 * mm).Build()
+	a, err := sys.Apertures(paraxial.ObjectAt(-200*mm), paraxial.Tangential)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fan, err := sys.Fan(a, paraxial.Field{Height: 2 * mm}, 3, sys.Length())
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for i, steps := range fan.Rays {
+		lens, end := steps[1], steps[len(steps)-1]
+		fmt.Printf("ρ = %+.0f: y = %+.3f mm at the lens, %+.3f mm at z = %.0f mm\n",
+			fan.Pupil[i], lens.Ray.Y.Millimeters(), end.Ray.Y.Millimeters(), end.Z.Millimeters())
+	}
+	// Output:
+	// ρ = -1: y = -10.000 mm at the lens, -2.000 mm at z = 200 mm
+	// ρ = +0: y = +0.000 mm at the lens, -2.000 mm at z = 200 mm
+	// ρ = +1: y = +10.000 mm at the lens, -2.000 mm at z = 200 mm
+}

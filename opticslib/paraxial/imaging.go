@@ -29,8 +29,9 @@ type Conjugate struct {
 	// AngularMagnification is θ'/θ for a ray from the axial object
 	// point; Magnification·AngularMagnification = n/n'.
 	AngularMagnification float64
-	// RealObject reports an object at or before the first surface,
-	// RealImage an image at or after the last surface.
+	// RealObject reports an object at or before the first optical
+	// surface, RealImage an image at or after the last one (diaphragms do
+	// not count; see [Cardinal]).
 	RealObject, RealImage bool
 }
 
@@ -79,7 +80,7 @@ func (s System) Image(object units.Length, p Plane) (Conjugate, error) {
 		return Conjugate{}, ErrOverflow
 	}
 	c.RealObject, c.RealImage = true, true
-	if first, last, ok := s.surfaces(); ok {
+	if first, last, ok := s.vertices(); ok {
 		c.RealObject = object <= s.elems[first].Z
 		c.RealImage = c.Image >= s.elems[last].Z
 	}

@@ -125,6 +125,23 @@ func PlanarInterface(n1, n2 float64) Matrix {
 	return Matrix{A: 1, D: n1 / n2}
 }
 
+// abs returns the matrix of the magnitudes of the entries of m.
+func (m Matrix) abs() Matrix {
+	return Matrix{A: math.Abs(m.A), B: math.Abs(m.B), C: math.Abs(m.C), D: math.Abs(m.D)}
+}
+
+// zeroTolerance is the relative size below which an entry of a product
+// counts as zero in the imaging and pupil conditions: |x| ≤ 1e-12·x̄,
+// where x̄ is the same entry of the product of the entrywise magnitudes,
+// the size of the terms that cancelled in x. Rounding leaves about
+// N·1.1e-16·x̄ after N products (N. J. Higham, Accuracy and Stability of
+// Numerical Algorithms, 2nd ed., 2002, §3.5 [from memory]), so 1e-12 is
+// far above it for any practical system and far below a deliberate value.
+const zeroTolerance = 1e-12
+
+// nearZero reports |x| ≤ zeroTolerance·bound.
+func nearZero(x, bound float64) bool { return math.Abs(x) <= zeroTolerance*bound }
+
 func (m Matrix) finite() bool {
 	return finite(m.A) && finite(m.B) && finite(m.C) && finite(m.D)
 }

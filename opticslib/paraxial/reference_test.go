@@ -135,6 +135,36 @@ func TestAfocalR31(t *testing.T) {
 	}
 }
 
+func TestMatricesR31(t *testing.T) {
+	// reference-checks R31 [X]: the system matrices themselves. Kepler
+	// (C = 0, A = −f2/f1, D = 1/A), 2f–2f (B = 0, A = −1) and s_o = 0.15 m
+	// with f = 0.1 m (B = 0, A = −2, D = 1/A). Entries O(10): abs 1e-15
+	// covers the cancellation in B (R31 quotes 2.8e-17), rel 1e-14 a few
+	// ulps.
+	const abs, rel = 1e-15, 1e-14
+	for _, test := range []struct {
+		name string
+		b    *paraxial.Builder
+		want paraxial.Matrix
+	}{
+		{"Kepler", fixtures.Kepler(), fixtures.KeplerMatrix},
+		{"2f-2f", paraxial.NewBuilder().Space(200 * mm).ThinLens(100 * mm).Space(200 * mm), paraxial.Matrix{A: -1, B: 0, C: -10, D: -1}},
+		{"s_o = 0.15 m", paraxial.NewBuilder().Space(150 * mm).ThinLens(100 * mm).Space(300 * mm), paraxial.Matrix{A: -2, B: 0, C: -10, D: -0.5}},
+	} {
+		s, err := test.b.Build()
+		if err != nil {
+			t.Errorf("R31 %s: Build error: %v", test.name, err)
+			continue
+		}
+		m := s.Matrix()
+		checkAll(t, "R31 "+test.name, abs, rel, []check{
+			{"A", m.A, test.want.A}, {"B", m.B, test.want.B}, {"C", m.C, test.want.C}, {"D", m.D, test.want.D},
+			// det = 1 in air with B = 0 or C = 0 gives D = 1/A.
+			{"D·A", m.D * m.A, 1},
+		})
+	}
+}
+
 func TestImageR31(t *testing.T) {
 	// reference-checks R31 [X]: 2f–2f imaging with f = 0.1 m gives the image
 	// 0.2 m after the lens with A = −1; s_o = 0.15 m gives s_i = 0.3 m and
@@ -366,7 +396,7 @@ func TestMirrorAstigmatism(t *testing.T) {
 	// convention) has f = 100 mm (Kogelnik & Li 1966, table I); at 30°
 	// incidence f_t = f·cos θ = 86.6025 mm and f_s = f/cos θ = 115.4701 mm
 	// (Kogelnik, Ippen, Dienes & Shank, IEEE JQE QE-8, 373 (1972)
-	// [from memory]; the statement). Closed forms: rel 1e-14.
+	// [from memory]). Closed forms: rel 1e-14.
 	s := build(t, paraxial.NewBuilder().Mirror(-200*mm, 30*units.Degree).Space(10*mm))
 	ct, cs := cardinal(t, s, paraxial.Tangential), cardinal(t, s, paraxial.Sagittal)
 	cos := math.Cos(math.Pi / 6)
@@ -423,6 +453,24 @@ func TestPlateR32(t *testing.T) {
 		if got := paraxial.PlateDisplacement(p.T, p.N, 1, units.Angle(th)); !scalar.EqualWithinAbsOrRel(float64(got), want, 1e-18, 1e-13) {
 			t.Errorf("PlateDisplacement(%g°) = %.15g, Snell geometry %.15g", deg, float64(got), want)
 		}
+	}
+	// Paraxially the plate is the air gap t/n (R32 [X]): B = t/n, and the
+	// exit ray is parallel to the incident one (A = D = 1, C = 0; Snell
+	// invariance across parallel planar layers). One division: abs
+	// 1e-15, rel 1e-14.
+	plate := build(t, paraxial.NewBuilder().Plate(p.T, p.N, 0))
+	m := plate.Matrix()
+	checkAll(t, "R32 plate matrix", 1e-15, 1e-14, []check{
+		{"A", m.A, 1}, {"B = t/n", m.B, float64(p.T) / p.N}, {"C", m.C, 0}, {"D", m.D, 1},
+		{"t − B = shift", float64(p.T) - m.B, float64(paraxial.PlateShift(p.T, p.N, 1))},
+	})
+	// The paraxial lateral offset of a ray at small θ, (t − B)θ, is the
+	// small-angle limit of the exact displacement; the relative difference
+	// is O(θ²) ≈ 1e-6 at θ = 1 mrad, so tol 1e-5.
+	const th = 1e-3
+	out := m.Apply(paraxial.Ray{Theta: th})
+	if got, want := th*float64(p.T)-float64(out.Y), float64(paraxial.PlateDisplacement(p.T, p.N, 1, th)); !scalar.EqualWithinAbsOrRel(got, want, 0, 1e-5) {
+		t.Errorf("paraxial displacement at 1 mrad = %.9g m, exact %.9g m", got, want)
 	}
 	// A plate inserted in a converging beam moves the image by the shift.
 	// Lens f = 100 mm with the object at −200 mm: image at 200 mm; with the
@@ -540,5 +588,100 @@ func TestSingleLensPupils(t *testing.T) {
 	})
 	if a.Stop != 1 || a.FieldStop != 3 {
 		t.Errorf("stop %d, field stop %d; want 1, 3", a.Stop, a.FieldStop)
+	}
+}
+
+func TestTelecentricPupilsRounding(t *testing.T) {
+	// A 4f relay of f = 170 mm with the stop in the common focal plane is
+	// telecentric on both sides (closed form, as fixtures.Relay4f): both
+	// pupils at infinity. 0.17 is not a binary fraction, so A from the
+	// object to the stop is 8e-18 rather than 0; a pupil must still be
+	// reported at infinity, not at ~1e15 m.
+	for _, f := range []units.Length{100 * mm, 170 * mm, 123 * mm, 70 * mm} {
+		s := build(t, paraxial.NewBuilder().Space(f).ThinLens(f).Aperture(20*mm).Space(f).
+			Diaphragm(2*mm).Space(f).ThinLens(f).Aperture(20*mm).Space(f))
+		a, err := s.Apertures(paraxial.ObjectAt(0), paraxial.Tangential)
+		if err != nil {
+			t.Errorf("f = %v: Apertures error: %v", f, err)
+			continue
+		}
+		if a.Stop != 3 || !a.Entrance.AtInfinity || !a.Exit.AtInfinity {
+			t.Errorf("f = %v: stop %d, pupils %+v / %+v; want stop 3, both at infinity", f, a.Stop, a.Entrance, a.Exit)
+		}
+	}
+}
+
+func TestStopTie(t *testing.T) {
+	// Two identical lenses of a 4f relay (f = 110 mm, clear radius 20 mm)
+	// with the object at infinity: the axial pencil fills both equally
+	// (heights +h and −h; closed form), so the tie goes to the first lens.
+	// Without a tie margin the choice followed rounding (L2 for 110 mm).
+	// The entrance pupil is then L1 itself: z = 50 mm, radius 20 mm.
+	for _, f := range []units.Length{110 * mm, 170 * mm, 30 * mm} {
+		s := build(t, paraxial.NewBuilder().Space(50*mm).ThinLens(f).Aperture(20*mm).Space(2*f).ThinLens(f).Aperture(20*mm).Space(f))
+		a, err := s.Apertures(paraxial.ObjectAtInfinity(), paraxial.Tangential)
+		if err != nil {
+			t.Errorf("f = %v: Apertures error: %v", f, err)
+			continue
+		}
+		if a.Stop != 1 {
+			t.Errorf("f = %v: Stop = %d, want 1 (the first of two equal apertures)", f, a.Stop)
+		}
+		checkAll(t, "tie f = "+f.String(), 1e-15, 1e-12, []check{
+			{"Entrance.Z", float64(a.Entrance.Z), 0.05},
+			{"Entrance.Radius", float64(a.Entrance.Radius), 0.02},
+		})
+	}
+}
+
+func TestDiaphragmsAreNotVertices(t *testing.T) {
+	// A camera: iris 10 mm before a thin lens f = 50 mm, sensor mask in
+	// the focal plane. The back focal distance is measured from the last
+	// optical surface, the lens (W. J. Smith, Modern Optical Engineering,
+	// ch. 2 [from memory]: BFL is the distance from the last lens surface
+	// to F'), so BFL = FFL = f = 50 mm; a diaphragm, whose matrix is the
+	// identity, is not a vertex. An object between the iris and the lens
+	// is real: s_o = 5 mm gives the virtual image s_i = −5.556 mm (Gaussian
+	// lens formula, Hecht §5.2.3 [from memory]). abs 1e-15 m, rel 1e-13.
+	s := build(t, paraxial.NewBuilder().Space(10*mm).Diaphragm(4*mm).Space(10*mm).ThinLens(50*mm).Aperture(12*mm).Space(50*mm).Diaphragm(4*mm))
+	c := cardinal(t, s, paraxial.Tangential)
+	checkAll(t, "camera", 1e-15, 1e-13, []check{
+		{"BFL", float64(c.BFL), 0.05},
+		{"FFL", float64(c.FFL), 0.05},
+		{"FirstVertex", float64(c.FirstVertex), 0.02},
+		{"LastVertex", float64(c.LastVertex), 0.02},
+		{"RearFocal", float64(c.RearFocal), 0.07},
+	})
+	im, err := s.Image(15*mm, paraxial.Tangential)
+	if err != nil {
+		t.Fatalf("Image(15 mm) error: %v", err)
+	}
+	checkAll(t, "object behind the iris", 1e-15, 1e-13, []check{{"Image", float64(im.Image), 0.02 + 1/(1/0.05-1/0.005)}})
+	if !im.RealObject || im.RealImage {
+		t.Errorf("object behind the iris: real object/image = %v/%v, want true/false", im.RealObject, im.RealImage)
+	}
+	// The object of an aperture analysis must still precede the iris,
+	// since the iris limits the pencil.
+	if _, err := s.Apertures(paraxial.ObjectAt(15*mm), paraxial.Tangential); err == nil {
+		t.Errorf("Apertures with the object after the iris: error = nil, want an *ElementError")
+	}
+}
+
+func TestApertureInImagePlane(t *testing.T) {
+	// An aperture in an image of the object (the focal plane of a lens for
+	// an object at infinity, the 2f plane for an object at 2f) has the
+	// axial marginal height 0 (closed form, Gaussian optics), so it limits
+	// no axial pencil and cannot be the stop; with no other aperture there
+	// is no stop. In floating point the height is ~1e-17 rather than 0 for
+	// f = 170 mm, which made the mask a stop with a 1e14 m marginal ray.
+	for _, f := range []units.Length{100 * mm, 170 * mm, 123 * mm} {
+		s := build(t, paraxial.NewBuilder().Space(10*mm).ThinLens(f).Space(f).Diaphragm(1*mm).Space(10*mm))
+		if _, err := s.Apertures(paraxial.ObjectAtInfinity(), paraxial.Tangential); err != paraxial.ErrNoStop {
+			t.Errorf("f = %v, mask in the focal plane: error = %v, want ErrNoStop", f, err)
+		}
+		s = build(t, paraxial.NewBuilder().Space(2*f).ThinLens(f).Space(2*f).Diaphragm(1*mm))
+		if _, err := s.Apertures(paraxial.ObjectAt(0), paraxial.Tangential); err != paraxial.ErrNoStop {
+			t.Errorf("f = %v, mask in the image plane: error = %v, want ErrNoStop", f, err)
+		}
 	}
 }

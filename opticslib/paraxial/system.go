@@ -16,7 +16,10 @@ var ErrNonFinite = errors.New("paraxial: position must be finite")
 var ErrOrder = errors.New("paraxial: start position after end position")
 
 // ErrOverflow is returned when a composed matrix or length overflows to
-// ±Inf or NaN although every input was finite.
+// ±Inf or NaN although every input was finite. [Builder.Build] and the
+// edits ([System.WithSpace], [System.Replace], [System.Reverse]) wrap it
+// in an [*ElementError] naming the element at which the running product
+// overflowed; test for it with errors.Is.
 var ErrOverflow = errors.New("paraxial: matrix entry overflowed (not finite)")
 
 // System is an immutable, ordered sequence of elements built by a

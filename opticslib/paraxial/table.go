@@ -16,9 +16,12 @@ import (
 // Pass the fields to a notebook table display, or render with
 // [Table.Text] or [Table.HTML].
 type Table struct {
+	// Caption is the title line; it may be empty.
 	Caption string
-	Header  []string
-	Rows    [][]string
+	// Header holds the column names, with units in parentheses.
+	Header []string
+	// Rows holds the data cells, one slice per row.
+	Rows [][]string
 }
 
 func cellAt(r []string, j int) string {

@@ -14,8 +14,11 @@
 //
 // so the optical axis is sample N/2. The window is periodic: energy that
 // reaches its edge wraps around. Keep the window ≥ 8–10 beam radii wide and
-// Dx ≤ w/3 (reference-checks R15); [ErrWrap] reports a field that touches
-// the edge.
+// Dx ≤ w/3 (reference-checks R15), finer for a strongly curved wavefront
+// (its local spatial frequency k·x/R must stay below π/Dx). [ErrWrap]
+// reports a result that touches the window edge and [ErrUndersampled] an
+// input whose angular spectrum reaches the Nyquist frequency; both come
+// with the (inaccurate) result.
 //
 // # Sign convention
 //

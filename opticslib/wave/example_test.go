@@ -34,3 +34,27 @@ func ExampleLine_Propagate() {
 	// Output:
 	// FFT second-moment radius 158.1160 µm, q-law 158.1139 µm
 }
+
+func ExampleGrid_Propagate() {
+	// An elliptical beam (w0x = 40 µm, w0y = 80 µm, λ = 1 µm) over 20 mm:
+	// the FFT second-moment radii against the q-law of each plane.
+	gx, _ := beam.FromWaist(40*units.Micrometer, 0, 1*units.Micrometer, 1)
+	gy, _ := beam.FromWaist(80*units.Micrometer, 0, 1*units.Micrometer, 1)
+	in, err := wave.GridFromBeam(beam.Astigmatic{X: gx, Y: gy}, 256, 8*units.Micrometer)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	z := 20 * units.Millimeter
+	out, err := in.Propagate(z, wave.Paraxial)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	wx, wy := out.SecondMomentRadii()
+	qx, qy := gx.Transform(paraxial.Space(z), 1), gy.Transform(paraxial.Space(z), 1)
+	fmt.Printf("FFT %.3f × %.3f µm, q-law %.3f × %.3f µm\n",
+		wx.Micrometers(), wy.Micrometers(), qx.Radius().Micrometers(), qy.Radius().Micrometers())
+	// Output:
+	// FFT 164.105 × 112.839 µm, q-law 164.105 × 112.839 µm
+}

@@ -2,7 +2,6 @@ package wave
 
 import (
 	"math"
-	"math/cmplx"
 	"strconv"
 
 	"gonum.org/v1/gonum/dsp/fourier"
@@ -104,7 +103,7 @@ func fft2(t *fourier.CmplxFFT, u []complex128, n int, inverse bool) {
 
 // Propagate is [Line.Propagate] for a 2-D field: u → F⁻¹[H(κ)·F[u]] with
 // κ² = κx² + κy². It returns an [*Error] for invalid input, and the result
-// together with [ErrWrap] when the result reaches the window edge.
+// together with [ErrUndersampled] or [ErrWrap] as [Line.Propagate] does.
 func (g Grid) Propagate(z units.Length, kern Kernel) (Grid, error) {
 	if err := g.Validate(); err != nil {
 		return Grid{}, err
@@ -116,6 +115,7 @@ func (g Grid) Propagate(z units.Length, kern Kernel) (Grid, error) {
 	t := fourier.NewCmplxFFT(n)
 	u := append([]complex128(nil), g.U...)
 	fft2(t, u, n, false)
+	aliased := nyquistAmplitude(u, n) > EdgeLimit
 	k := 2 * math.Pi * g.Index / float64(g.Wavelength)
 	k2 := make([]float64, n)
 	for i := range n {
@@ -129,33 +129,13 @@ func (g Grid) Propagate(z units.Length, kern Kernel) (Grid, error) {
 	}
 	fft2(t, u, n, true)
 	out := Grid{U: u, N: n, Dx: g.Dx, Wavelength: g.Wavelength, Index: g.Index}
-	if out.EdgeAmplitude() > EdgeLimit {
-		return out, ErrWrap
-	}
-	return out, nil
+	return out, sampling(aliased, out.EdgeAmplitude())
 }
 
 // EdgeAmplitude returns the largest |u| in the outer frame of the window
 // (N/16 samples wide), relative to the largest |u| anywhere (0 for a zero
 // field).
-func (g Grid) EdgeAmplitude() float64 {
-	n := g.N
-	b := band(n)
-	peak, edge := 0.0, 0.0
-	for j := range n {
-		for i := range n {
-			a := cmplx.Abs(g.U[j*n+i])
-			peak = math.Max(peak, a)
-			if i < b || i >= n-b || j < b || j >= n-b {
-				edge = math.Max(edge, a)
-			}
-		}
-	}
-	if peak == 0 {
-		return 0
-	}
-	return edge / peak
-}
+func (g Grid) EdgeAmplitude() float64 { return windowAmplitude(g.U, g.N) }
 
 // SecondMomentRadii returns the second-moment (D4σ/2) radii in x and y,
 // 2√(⟨x²⟩ − ⟨x⟩²) and 2√(⟨y²⟩ − ⟨y⟩²) with intensity weights |u|², in

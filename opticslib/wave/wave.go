@@ -50,16 +50,30 @@ const EdgeLimit = 1e-4
 // the periodic window and the result is inaccurate. Use a larger window.
 var ErrWrap = errors.New("wave: field reaches the window edge (wrap-around); enlarge the window")
 
+// ErrUndersampled is returned, together with the propagated field, when
+// the angular spectrum of the input reaches the Nyquist frequency 1/(2Dx):
+// the largest |F[u]| in the outer sixteenth of the frequency band on each
+// side exceeds [EdgeLimit] times its peak. The input is then aliased (a
+// beam with strong wavefront curvature needs Dx well below w/3, since its
+// local spatial frequency k·x/R grows across the beam) and the result is
+// inaccurate. Use a finer spacing. It takes precedence over [ErrWrap].
+var ErrUndersampled = errors.New("wave: field spectrum reaches the Nyquist frequency (aliasing); use a finer spacing Dx")
+
 // Error reports an invalid parameter, for example
 //
 //	wave: spacing Dx = -1 µm: must be positive and finite
 type Error struct {
-	Param  string
-	Value  float64
+	// Param names the parameter, for example "spacing Dx".
+	Param string
+	// Value is the offending value, in SI units (metres for lengths).
+	Value float64
+	// Length is true when Value is a length (printed with units.Length).
 	Length bool
+	// Reason states the requirement that Value fails.
 	Reason string
 }
 
+// Error implements the error interface.
 func (e *Error) Error() string {
 	v := strconv.FormatFloat(e.Value, 'g', -1, 64)
 	if e.Length {
@@ -185,9 +199,17 @@ func checkZ(z units.Length, kern Kernel) error {
 // Propagate returns the field after a distance z (metres; negative goes
 // backwards) of homogeneous medium, by the angular-spectrum method with
 // kernel kern: u → F⁻¹[H(κ)·F[u]] (Goodman, Introduction to Fourier
-// Optics, ch. 3 [from memory]). The result has the same sampling. It
-// returns an [*Error] for invalid input, and the result together with
-// [ErrWrap] when the result reaches the window edge.
+// Optics, ch. 3 [from memory]), with κ = 2π·(FFT frequency)/Dx. The
+// result has the same sampling. With the exact kernel, evanescent
+// components (κ > k) are damped by exp(−|z|√(κ² − k²)) for either sign of
+// z, so a backward step does not amplify them.
+//
+// It returns an [*Error] for invalid input, and the result together with
+// [ErrUndersampled] when the input spectrum reaches the Nyquist frequency
+// or [ErrWrap] when the result reaches the window edge. The discrete
+// propagation is exact for the periodic, band-limited field the samples
+// describe, so these two checks cover its sampling errors: aliasing of
+// the kernel's chirp shows up as wrap-around in the result.
 func (l Line) Propagate(z units.Length, kern Kernel) (Line, error) {
 	if err := l.Validate(); err != nil {
 		return Line{}, err
@@ -198,6 +220,7 @@ func (l Line) Propagate(z units.Length, kern Kernel) (Line, error) {
 	n := len(l.U)
 	t := fourier.NewCmplxFFT(n)
 	spec := t.Coefficients(nil, l.U)
+	aliased := nyquistAmplitude(spec, n) > EdgeLimit
 	k := 2 * math.Pi * l.Index / float64(l.Wavelength)
 	for i := range spec {
 		spec[i] *= transfer(kern, k, float64(z), kappa2(t, i, float64(l.Dx)))
@@ -207,34 +230,61 @@ func (l Line) Propagate(z units.Length, kern Kernel) (Line, error) {
 	for i := range out.U {
 		out.U[i] *= inv
 	}
-	if out.EdgeAmplitude() > EdgeLimit {
-		return out, ErrWrap
+	return out, sampling(aliased, out.EdgeAmplitude())
+}
+
+// sampling returns the error that goes with a propagated field:
+// [ErrUndersampled] if the input spectrum was aliased, [ErrWrap] if the
+// output reaches the window edge by more than [EdgeLimit], else nil.
+func sampling(aliased bool, edge float64) error {
+	switch {
+	case aliased:
+		return ErrUndersampled
+	case edge > EdgeLimit:
+		return ErrWrap
 	}
-	return out, nil
+	return nil
 }
 
 // band returns the width of the edge band: N/16 samples, at least 1.
 func band(n int) int { return max(1, n/16) }
 
-// EdgeAmplitude returns the largest |u| in the outer sixteenth of the
-// window on each side, relative to the largest |u| anywhere (0 for a zero
-// field).
-func (l Line) EdgeAmplitude() float64 {
-	n := len(l.U)
-	b := band(n)
-	peak, edge := 0.0, 0.0
-	for i, v := range l.U {
+// edgeRatio returns the largest |u| over the samples whose index (for a
+// line of n samples) or whose row or column index (for an n×n grid)
+// satisfies edge, relative to the largest |u| anywhere; 0 for a zero
+// field.
+func edgeRatio(u []complex128, n int, edge func(int) bool) float64 {
+	peak, e := 0.0, 0.0
+	for k, v := range u {
 		a := cmplx.Abs(v)
 		peak = math.Max(peak, a)
-		if i < b || i >= n-b {
-			edge = math.Max(edge, a)
+		if edge(k%n) || (len(u) > n && edge(k/n)) {
+			e = math.Max(e, a)
 		}
 	}
 	if peak == 0 {
 		return 0
 	}
-	return edge / peak
+	return e / peak
 }
+
+// windowAmplitude is [edgeRatio] over the outer band of the window.
+func windowAmplitude(u []complex128, n int) float64 {
+	b := band(n)
+	return edgeRatio(u, n, func(i int) bool { return i < b || i >= n-b })
+}
+
+// nyquistAmplitude is [edgeRatio] of an unshifted FFT spectrum over the
+// band of frequencies next to the Nyquist frequency (index N/2).
+func nyquistAmplitude(spec []complex128, n int) float64 {
+	b := band(n)
+	return edgeRatio(spec, n, func(i int) bool { return i >= n/2-b && i < n/2+b })
+}
+
+// EdgeAmplitude returns the largest |u| in the outer sixteenth of the
+// window on each side, relative to the largest |u| anywhere (0 for a zero
+// field).
+func (l Line) EdgeAmplitude() float64 { return windowAmplitude(l.U, len(l.U)) }
 
 // SecondMomentRadius returns twice the intensity-weighted standard
 // deviation of x,
