@@ -16,7 +16,7 @@ func TestPowerR09(t *testing.T) {
 	// reference-checks R09 [X]: fraction inside r = w is 1 − e⁻² =
 	// 0.864665; I0 = 2P/(πw²) = 636.6198 W/m² for 1 mW and 1 mm; an
 	// aperture of diameter πw passes 0.992808 and one of radius 1.5w
-	// passes 0.988891 (πw rule: Siegman, Lasers §17.1 [from memory]).
+	// passes 0.988891 (πw rule: A. E. Siegman, Lasers, University Science Books 1986, §17.1 [section from memory]).
 	// Values quoted to 6–7 significant digits: rel 1e-6. Closed form
 	// against expm1: rel 1e-15.
 	const quoted = 1e-6

@@ -1,5 +1,10 @@
 package optplot
 
+// Rendering tests: byte-identical SVG for the same input (golden files,
+// STYLE rule 13), labels and marks present, bad input rejected. They check
+// drawing, not optics; the numbers drawn are tested in package beam against
+// Kogelnik & Li (1966) and Self (1983).
+
 import (
 	"bytes"
 	"flag"

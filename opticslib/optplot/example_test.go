@@ -1,5 +1,7 @@
 package optplot_test
 
+// Examples that render figures; they print sizes and labels, not optics.
+
 import (
 	"bytes"
 	"fmt"

@@ -1,5 +1,7 @@
 package optplot_test
 
+// Example of the layout drawing; it prints what was drawn, not optics.
+
 import (
 	"bytes"
 	"fmt"

@@ -1,5 +1,9 @@
 package optplot
 
+// Layout rendering tests: determinism (byte-identical SVG) and what the
+// drawing contains. The ray heights drawn come from paraxial.System.Fan,
+// whose optics is tested in package paraxial against textbook references.
+
 import (
 	"math"
 	"strings"

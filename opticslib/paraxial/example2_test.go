@@ -1,5 +1,9 @@
 package paraxial_test
 
+// Examples of the analyses. The printed values are regression outputs; the
+// same quantities are checked against outside references in
+// reference_test.go (for instance the R30 equi-biconvex lens, Hecht §6.2).
+
 import (
 	"fmt"
 

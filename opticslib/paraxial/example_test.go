@@ -1,5 +1,9 @@
 package paraxial_test
 
+// Examples of the builder and matrices. The printed values are regression
+// outputs; the formulas behind them are checked against outside references
+// in reference_test.go and elements_test.go.
+
 import (
 	"fmt"
 
