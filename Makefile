@@ -7,6 +7,7 @@
 #   make doctor          list what is missing, with the fix for each
 #   make bench           Go benchmarks of opticslib
 #   make latency         measure notebook cell latency (see DEVELOPERS.md)
+#   make compare         the same work as the Go benchmarks, in NumPy, for comparison
 #
 # KERNEL_SCOPE=user installs the kernelspec for the user (~/.local/share/jupyter)
 # instead of the project-local .beamnote/jupyter. NOTEBOOK_IP / NOTEBOOK_PORT
@@ -23,7 +24,7 @@ ifeq ($(KERNEL_SCOPE),user)
 SCOPE_FLAG := -user
 endif
 
-.PHONY: notebook test deps kernel doctor bench latency vet gotest nbtest clean
+.PHONY: notebook test deps kernel doctor bench latency compare vet gotest nbtest clean
 
 notebook: kernel
 	$(BK) serve $(SCOPE_FLAG)
@@ -60,3 +61,6 @@ latency: kernel
 
 clean:
 	rm -rf $(STATE) build
+
+compare:
+	$(PYTHON) testdata/bench/rays_numpy.py
