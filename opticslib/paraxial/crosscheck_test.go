@@ -1,0 +1,283 @@
+package paraxial_test
+
+// Cross-check of paraxial.System.Cardinal against an independent reference
+// written with numpy (testdata/crosscheck/paraxial_cardinal.py), run with
+// the system interpreter /usr/bin/python3 (Debian's python3-numpy and
+// python3-scipy; the python3 first on PATH may not see them). The test
+// skips when the interpreter or the modules are missing; CI has them.
+
+import (
+	"bytes"
+	"encoding/json"
+	"math"
+	"math/rand/v2"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"testing"
+
+	"gonum.org/v1/gonum/floats/scalar"
+
+	"github.com/beamnote/beamnote/opticslib/paraxial"
+	"github.com/beamnote/beamnote/opticslib/units"
+)
+
+// xcPython is the system interpreter that sees Debian's numpy and scipy.
+const xcPython = "/usr/bin/python3"
+
+// xcRunReference writes in as JSON to a temporary file, runs the reference
+// script testdata/crosscheck/<script> on it and decodes the script's JSON
+// output into out. It skips the test if the interpreter or numpy/scipy are
+// unavailable, and fails it if the script itself fails.
+func xcRunReference(t *testing.T, script string, in, out any) {
+	t.Helper()
+	if _, err := os.Stat(xcPython); err != nil {
+		t.Skipf("cross-check skipped: %s not found (install python3-numpy and python3-scipy): %v", xcPython, err)
+	}
+	if msg, err := exec.Command(xcPython, "-c", "import numpy, scipy").CombinedOutput(); err != nil {
+		t.Skipf("cross-check skipped: %s cannot import numpy and scipy (install python3-numpy python3-scipy): %v\n%s", xcPython, err, msg)
+	}
+	dir := t.TempDir()
+	inPath, outPath := filepath.Join(dir, "in.json"), filepath.Join(dir, "out.json")
+	data, err := json.Marshal(in)
+	if err != nil {
+		t.Fatalf("json.Marshal(cases) error: %v", err)
+	}
+	if err := os.WriteFile(inPath, data, 0o600); err != nil {
+		t.Fatalf("WriteFile(%s) error: %v", inPath, err)
+	}
+	// Tests run in the package directory, opticslib/paraxial.
+	path := filepath.Join("..", "..", "testdata", "crosscheck", script)
+	// Stat the script through os so that go test's result cache is
+	// invalidated when the script changes (the child process's reads are
+	// not recorded).
+	if _, err := os.Stat(path); err != nil {
+		t.Fatalf("reference script: %v", err)
+	}
+	var stderr bytes.Buffer
+	cmd := exec.Command(xcPython, path, inPath, outPath)
+	cmd.Stderr = &stderr
+	if err := cmd.Run(); err != nil {
+		t.Fatalf("%s %s error: %v\n%s", xcPython, path, err, stderr.Bytes())
+	}
+	data, err = os.ReadFile(outPath)
+	if err != nil {
+		t.Fatalf("ReadFile(%s) error: %v", outPath, err)
+	}
+	if err := json.Unmarshal(data, out); err != nil {
+		t.Fatalf("json.Unmarshal(%s output) error: %v", script, err)
+	}
+}
+
+// xcElement is an element as the reference script reads it; curvatures
+// C = 1/R in 1/m, 0 for a flat surface.
+type xcElement struct {
+	Kind string  `json:"kind"` // "space", "thick", "thin", "sphere"
+	D    float64 `json:"d,omitempty"`
+	C1   float64 `json:"c1"`
+	C2   float64 `json:"c2"`
+	T    float64 `json:"t,omitempty"`
+	N    float64 `json:"n,omitempty"`
+	F    float64 `json:"f,omitempty"`
+	C    float64 `json:"c"`
+	N2   float64 `json:"n2,omitempty"`
+}
+
+// xcRadius converts a curvature to the builder's radius (Flat for 0).
+func xcRadius(c float64) units.Length {
+	if c == 0 {
+		return paraxial.Flat
+	}
+	return units.Length(1 / c)
+}
+
+// xcCurvature returns a random surface curvature in 1/m: |R| in 20–300 mm,
+// either sign, flat one time in five.
+func xcCurvature(rng *rand.Rand) float64 {
+	if rng.IntN(5) == 0 {
+		return 0
+	}
+	r := 0.02 + 0.28*rng.Float64()
+	if rng.IntN(2) == 0 {
+		r = -r
+	}
+	return 1 / r
+}
+
+func TestCrossCheckCardinalNumPy(t *testing.T) {
+	// Independent reference: reduced matrices (Gerrard & Burch 1975, ch.
+	// II; Hecht, Optics, 4th ed., §6.2) composed with numpy, and the
+	// cardinal points found by tracing their defining rays with
+	// numpy.linalg.solve (parallel ray → F', H'; ray leaving parallel → F,
+	// H; unit angular magnification → N, N'), not by the closed formulas
+	// of Cardinal's doc. For a single thick lens in air also Hecht's
+	// closed forms, eqs. (6.2)–(6.4). testdata/crosscheck/paraxial_cardinal.py.
+	//
+	// Tolerance: abs 1e-12·s with s = |EFL| + |z₂| + |z₁| for positions and
+	// lengths, rel 1e-12 for the power. Every quantity is a vertex position
+	// plus a ratio of matrix entries of size ≲ s, computed through ≤ 20
+	// products of float64 entries; rounding is ~1e-15·s, and the 1e3 margin
+	// covers cancellation in C for weak systems. A sign or principal-plane
+	// error is of order the lens thickness, ≳ 1e-3 m.
+	const tol = 1e-12
+	type xcase struct {
+		NIn      float64     `json:"n_in"`
+		Elements []xcElement `json:"elements"`
+		sys      paraxial.System
+	}
+	rng := rand.New(rand.NewPCG(1, 1))
+	var cases []xcase
+	for i := range 40 {
+		nIn := 1.0
+		kind := i % 4 // 0: one thick lens in air; 1: several lenses in air; 2: in water; 3: ends in glass
+		if kind == 2 {
+			nIn = 1.33
+		}
+		b := paraxial.NewBuilder().Medium(nIn)
+		var els []xcElement
+		space := func(d float64) {
+			b.Space(units.Length(d))
+			els = append(els, xcElement{Kind: "space", D: d})
+		}
+		thick := func() {
+			c1, c2 := xcCurvature(rng), xcCurvature(rng)
+			if c1 == 0 && c2 == 0 {
+				c1 = 10 // a plate has no power; make it a plano lens
+			}
+			th, n := 0.002+0.02*rng.Float64(), 1.45+0.5*rng.Float64()
+			b.ThickLens(xcRadius(c1), xcRadius(c2), units.Length(th), n)
+			els = append(els, xcElement{Kind: "thick", C1: c1, C2: c2, T: th, N: n})
+		}
+		space(0.01 + 0.1*rng.Float64())
+		switch kind {
+		case 0:
+			thick()
+		default:
+			for range 2 + rng.IntN(2) {
+				if rng.IntN(3) == 0 {
+					f := 0.05 + 0.3*rng.Float64()
+					if rng.IntN(2) == 0 {
+						f = -f
+					}
+					b.ThinLens(units.Length(f))
+					els = append(els, xcElement{Kind: "thin", F: f})
+				} else {
+					thick()
+				}
+				space(0.005 + 0.1*rng.Float64())
+			}
+			if kind == 3 {
+				c := xcCurvature(rng)
+				if c == 0 {
+					c = -8
+				}
+				n2 := 1.4 + 0.4*rng.Float64()
+				b.Interface(xcRadius(c), n2)
+				els = append(els, xcElement{Kind: "sphere", C: c, N2: n2})
+			}
+		}
+		space(0.01 + 0.1*rng.Float64())
+		sys, err := b.Build()
+		if err != nil {
+			t.Fatalf("case %d: Build() error: %v", i, err)
+		}
+		cases = append(cases, xcase{NIn: nIn, Elements: els, sys: sys})
+	}
+	type values struct {
+		Power          float64 `json:"power"`
+		EFL            float64 `json:"efl"`
+		FFL            float64 `json:"ffl"`
+		BFL            float64 `json:"bfl"`
+		FrontFocal     float64 `json:"front_focal"`
+		RearFocal      float64 `json:"rear_focal"`
+		FrontPrincipal float64 `json:"front_principal"`
+		RearPrincipal  float64 `json:"rear_principal"`
+		FrontNodal     float64 `json:"front_nodal"`
+		RearNodal      float64 `json:"rear_nodal"`
+		Z1             float64 `json:"z1"`
+		Z2             float64 `json:"z2"`
+		NOut           float64 `json:"n_out"`
+		Hecht          *struct {
+			EFL            float64 `json:"efl"`
+			FrontPrincipal float64 `json:"front_principal"`
+			RearPrincipal  float64 `json:"rear_principal"`
+			BFL            float64 `json:"bfl"`
+			FFL            float64 `json:"ffl"`
+		} `json:"hecht"`
+	}
+	var ref struct {
+		Reference string   `json:"reference"`
+		Cases     []values `json:"cases"`
+	}
+	xcRunReference(t, "paraxial_cardinal.py", map[string]any{"cases": cases}, &ref)
+	if len(ref.Cases) != len(cases) {
+		t.Fatalf("reference returned %d cases, want %d", len(ref.Cases), len(cases))
+	}
+	var maxRel, maxHecht float64
+	nHecht := 0
+	for i, test := range cases {
+		r := ref.Cases[i]
+		c, err := test.sys.Cardinal(paraxial.Tangential)
+		if err != nil {
+			t.Errorf("case %d: Cardinal error: %v", i, err)
+			continue
+		}
+		if c.Afocal {
+			t.Errorf("case %d: Afocal = true, want false (reference power %g /m)", i, r.Power)
+			continue
+		}
+		s := math.Abs(r.EFL) + math.Abs(r.Z2) + math.Abs(r.Z1)
+		for _, q := range []struct {
+			name      string
+			got, want float64
+		}{
+			{"FirstVertex", float64(c.FirstVertex), r.Z1},
+			{"LastVertex", float64(c.LastVertex), r.Z2},
+			{"EFL", float64(c.EFL), r.EFL},
+			{"FFL", float64(c.FFL), r.FFL},
+			{"BFL", float64(c.BFL), r.BFL},
+			{"FrontFocal", float64(c.FrontFocal), r.FrontFocal},
+			{"RearFocal", float64(c.RearFocal), r.RearFocal},
+			{"FrontPrincipal", float64(c.FrontPrincipal), r.FrontPrincipal},
+			{"RearPrincipal", float64(c.RearPrincipal), r.RearPrincipal},
+			{"FrontNodal", float64(c.FrontNodal), r.FrontNodal},
+			{"RearNodal", float64(c.RearNodal), r.RearNodal},
+			{"RearFocalLength", float64(c.RearFocalLength), r.NOut * r.EFL},      // f' = n'/Φ
+			{"FrontFocalLength", float64(c.FrontFocalLength), -test.NIn * r.EFL}, // f = −n/Φ
+		} {
+			maxRel = math.Max(maxRel, math.Abs(q.got-q.want)/s)
+			if !scalar.EqualWithinAbs(q.got, q.want, tol*s) {
+				t.Errorf("case %d: Cardinal().%s = %.15g, want %.15g (numpy ray trace)", i, q.name, q.got, q.want)
+			}
+		}
+		if !scalar.EqualWithinRel(c.Power, r.Power, tol) {
+			t.Errorf("case %d: Cardinal().Power = %.15g, want %.15g (numpy)", i, c.Power, r.Power)
+		}
+		if c.IndexOut != r.NOut {
+			t.Errorf("case %d: Cardinal().IndexOut = %g, want %g", i, c.IndexOut, r.NOut)
+		}
+		if r.Hecht == nil {
+			continue
+		}
+		// Hecht's closed forms: the same rounding argument and tolerance.
+		nHecht++
+		h := r.Hecht
+		for _, q := range []struct {
+			name      string
+			got, want float64
+		}{
+			{"EFL", float64(c.EFL), h.EFL},
+			{"FFL", float64(c.FFL), h.FFL},
+			{"BFL", float64(c.BFL), h.BFL},
+			{"FrontPrincipal", float64(c.FrontPrincipal), h.FrontPrincipal},
+			{"RearPrincipal", float64(c.RearPrincipal), h.RearPrincipal},
+		} {
+			maxHecht = math.Max(maxHecht, math.Abs(q.got-q.want)/s)
+			if !scalar.EqualWithinAbs(q.got, q.want, tol*s) {
+				t.Errorf("case %d: Cardinal().%s = %.15g, want %.15g (Hecht eqs. 6.2–6.4)", i, q.name, q.got, q.want)
+			}
+		}
+	}
+	t.Logf("%d systems against %s: max |Δ|/s = %.3g (ray trace), %.3g (Hecht closed forms, %d lenses)",
+		len(cases), ref.Reference, maxRel, maxHecht, nHecht)
+}
