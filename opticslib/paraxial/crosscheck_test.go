@@ -7,67 +7,16 @@ package paraxial_test
 // skips when the interpreter or the modules are missing; CI has them.
 
 import (
-	"bytes"
-	"encoding/json"
 	"math"
 	"math/rand/v2"
-	"os"
-	"os/exec"
-	"path/filepath"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
 
+	"github.com/beamnote/beamnote/opticslib/internal/pyref"
 	"github.com/beamnote/beamnote/opticslib/paraxial"
 	"github.com/beamnote/beamnote/opticslib/units"
 )
-
-// xcPython is the system interpreter that sees Debian's numpy and scipy.
-const xcPython = "/usr/bin/python3"
-
-// xcRunReference writes in as JSON to a temporary file, runs the reference
-// script testdata/crosscheck/<script> on it and decodes the script's JSON
-// output into out. It skips the test if the interpreter or numpy/scipy are
-// unavailable, and fails it if the script itself fails.
-func xcRunReference(t *testing.T, script string, in, out any) {
-	t.Helper()
-	if _, err := os.Stat(xcPython); err != nil {
-		t.Skipf("cross-check skipped: %s not found (install python3-numpy and python3-scipy): %v", xcPython, err)
-	}
-	if msg, err := exec.Command(xcPython, "-c", "import numpy, scipy").CombinedOutput(); err != nil {
-		t.Skipf("cross-check skipped: %s cannot import numpy and scipy (install python3-numpy python3-scipy): %v\n%s", xcPython, err, msg)
-	}
-	dir := t.TempDir()
-	inPath, outPath := filepath.Join(dir, "in.json"), filepath.Join(dir, "out.json")
-	data, err := json.Marshal(in)
-	if err != nil {
-		t.Fatalf("json.Marshal(cases) error: %v", err)
-	}
-	if err := os.WriteFile(inPath, data, 0o600); err != nil {
-		t.Fatalf("WriteFile(%s) error: %v", inPath, err)
-	}
-	// Tests run in the package directory, opticslib/paraxial.
-	path := filepath.Join("..", "..", "testdata", "crosscheck", script)
-	// Stat the script through os so that go test's result cache is
-	// invalidated when the script changes (the child process's reads are
-	// not recorded).
-	if _, err := os.Stat(path); err != nil {
-		t.Fatalf("reference script: %v", err)
-	}
-	var stderr bytes.Buffer
-	cmd := exec.Command(xcPython, path, inPath, outPath)
-	cmd.Stderr = &stderr
-	if err := cmd.Run(); err != nil {
-		t.Fatalf("%s %s error: %v\n%s", xcPython, path, err, stderr.Bytes())
-	}
-	data, err = os.ReadFile(outPath)
-	if err != nil {
-		t.Fatalf("ReadFile(%s) error: %v", outPath, err)
-	}
-	if err := json.Unmarshal(data, out); err != nil {
-		t.Fatalf("json.Unmarshal(%s output) error: %v", script, err)
-	}
-}
 
 // xcElement is an element as the reference script reads it; curvatures
 // C = 1/R in 1/m, 0 for a flat surface.
@@ -209,7 +158,7 @@ func TestCrossCheckCardinalNumPy(t *testing.T) {
 		Reference string   `json:"reference"`
 		Cases     []values `json:"cases"`
 	}
-	xcRunReference(t, "paraxial_cardinal.py", map[string]any{"cases": cases}, &ref)
+	pyref.Run(t, "paraxial_cardinal.py", map[string]any{"cases": cases}, &ref)
 	if len(ref.Cases) != len(cases) {
 		t.Fatalf("reference returned %d cases, want %d", len(ref.Cases), len(cases))
 	}

@@ -1,0 +1,64 @@
+// Package pyref runs the NumPy/SciPy reference scripts of
+// testdata/crosscheck for the cross-check tests of the opticslib packages.
+//
+// The scripts run with the system interpreter /usr/bin/python3, which sees
+// Debian's python3-numpy and python3-scipy (the python3 first on PATH may
+// not). Tests skip, saying why, where the interpreter or the modules are
+// missing; CI installs them.
+package pyref
+
+import (
+	"bytes"
+	"encoding/json"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"testing"
+)
+
+// Python is the system interpreter that sees Debian's numpy and scipy.
+const Python = "/usr/bin/python3"
+
+// Run writes in as JSON to a temporary file, runs the reference script
+// testdata/crosscheck/<script> on it and decodes the script's JSON output
+// into out. It skips the test if the interpreter or numpy/scipy are
+// unavailable, and fails it if the script itself fails. Tests must run in a
+// package directory two levels below the checkout (opticslib/<pkg>).
+func Run(t testing.TB, script string, in, out any) {
+	t.Helper()
+	if _, err := os.Stat(Python); err != nil {
+		t.Skipf("cross-check skipped: %s not found (install python3-numpy and python3-scipy): %v", Python, err)
+	}
+	if msg, err := exec.Command(Python, "-c", "import numpy, scipy").CombinedOutput(); err != nil {
+		t.Skipf("cross-check skipped: %s cannot import numpy and scipy (install python3-numpy python3-scipy): %v\n%s", Python, err, msg)
+	}
+	dir := t.TempDir()
+	inPath, outPath := filepath.Join(dir, "in.json"), filepath.Join(dir, "out.json")
+	data, err := json.Marshal(in)
+	if err != nil {
+		t.Fatalf("json.Marshal(cases) error: %v", err)
+	}
+	if err := os.WriteFile(inPath, data, 0o600); err != nil {
+		t.Fatalf("WriteFile(%s) error: %v", inPath, err)
+	}
+	path := filepath.Join("..", "..", "testdata", "crosscheck", script)
+	// Stat the script through os so that go test's result cache is
+	// invalidated when the script changes (the child process's reads are
+	// not recorded).
+	if _, err := os.Stat(path); err != nil {
+		t.Fatalf("reference script: %v", err)
+	}
+	var stderr bytes.Buffer
+	cmd := exec.Command(Python, path, inPath, outPath)
+	cmd.Stderr = &stderr
+	if err := cmd.Run(); err != nil {
+		t.Fatalf("%s %s error: %v\n%s", Python, path, err, stderr.Bytes())
+	}
+	data, err = os.ReadFile(outPath)
+	if err != nil {
+		t.Fatalf("ReadFile(%s) error: %v", outPath, err)
+	}
+	if err := json.Unmarshal(data, out); err != nil {
+		t.Fatalf("json.Unmarshal(%s output) error: %v", script, err)
+	}
+}
