@@ -2,11 +2,17 @@ package setup
 
 import (
 	"encoding/json"
+	"fmt"
 	"io"
+	"net"
+	"net/http"
 	"os"
+	"os/exec"
 	"path/filepath"
+	"sort"
 	"strings"
 	"testing"
+	"time"
 )
 
 // TestKernelSurvivesCrashes executes testdata/notebooks/reliability.ipynb with
@@ -57,4 +63,98 @@ func TestKernelSurvivesCrashes(t *testing.T) {
 	if !alive {
 		t.Errorf("the cell after the crashes did not run: outputs %+v", last.Outputs)
 	}
+}
+
+// TestServeSmoke starts the notebook server the way `make notebook` does
+// (ServeCommand), on a free loopback port, and checks through the Jupyter
+// REST API (jupyter_server documentation, "REST API": /api/kernelspecs,
+// /api/contents) that it serves notebooks/ with the beamnote kernel as the
+// default and refuses requests without the token. It needs `make kernel`
+// first and skips otherwise.
+func TestServeSmoke(t *testing.T) {
+	if testing.Short() {
+		t.Skip("starts a Jupyter server")
+	}
+	l, err := FindLayout(".")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := os.Stat(filepath.Join(KernelDir(l.JupyterData()), "kernel.json")); err != nil || Jupyter() == "" {
+		t.Skip("beamnote kernel not installed (run make kernel)")
+	}
+	ln, err := net.Listen("tcp", "127.0.0.1:0")
+	if err != nil {
+		t.Fatal(err)
+	}
+	port := ln.Addr().(*net.TCPAddr).Port
+	ln.Close()
+	argv, env, url, err := l.ServeCommand(ServeOptions{Port: port})
+	if err != nil {
+		t.Fatal(err)
+	}
+	cmd := exec.Command(argv[0], argv[1:]...)
+	cmd.Env = environ(env)
+	if err := cmd.Start(); err != nil {
+		t.Fatal(err)
+	}
+	defer func() {
+		cmd.Process.Signal(os.Interrupt)
+		cmd.Process.Signal(os.Interrupt) // the notebook server asks to confirm
+		done := make(chan error, 1)
+		go func() { done <- cmd.Wait() }()
+		select {
+		case <-done:
+		case <-time.After(10 * time.Second):
+			cmd.Process.Kill()
+		}
+	}()
+	token := url[strings.Index(url, "token=")+len("token="):]
+	base := fmt.Sprintf("http://127.0.0.1:%d", port)
+	var specs struct {
+		Default     string                     `json:"default"`
+		Kernelspecs map[string]json.RawMessage `json:"kernelspecs"`
+	}
+	deadline := time.Now().Add(60 * time.Second)
+	for {
+		resp, err := http.Get(base + "/api/kernelspecs?token=" + token)
+		if err == nil {
+			err = json.NewDecoder(resp.Body).Decode(&specs)
+			resp.Body.Close()
+			if err == nil {
+				break
+			}
+		}
+		if time.Now().After(deadline) {
+			t.Fatalf("notebook server on port %d did not answer: %v", port, err)
+		}
+		time.Sleep(300 * time.Millisecond)
+	}
+	if _, ok := specs.Kernelspecs[KernelName]; !ok || specs.Default != KernelName {
+		t.Errorf("kernelspecs: default %q, names %v; want %q present and default", specs.Default, keys(specs.Kernelspecs), KernelName)
+	}
+	resp, err := http.Get(base + "/api/kernelspecs")
+	if err != nil {
+		t.Fatal(err)
+	}
+	resp.Body.Close()
+	if resp.StatusCode != http.StatusForbidden {
+		t.Errorf("request without token: status %d, want 403", resp.StatusCode)
+	}
+	resp, err = http.Get(base + "/api/contents/00-quickstart.ipynb?content=0&token=" + token)
+	if err != nil {
+		t.Fatal(err)
+	}
+	resp.Body.Close()
+	if resp.StatusCode != http.StatusOK {
+		t.Errorf("notebooks/00-quickstart.ipynb through the server: status %d, want 200", resp.StatusCode)
+	}
+}
+
+func keys(m map[string]json.RawMessage) []string {
+	var ks []string
+	for k := range m {
+		ks = append(ks, k)
+	}
+	sort.Strings(ks)
+	return ks
 }
