@@ -89,6 +89,11 @@ func (k Kind) String() string {
 // The tangential plane (X) is the plane of incidence of tilted mirrors and
 // plates; the sagittal plane (Y) is perpendicular to it. For a
 // rotationally symmetric system they coincide.
+//
+// Only the two constants below are valid. The builder rejects other values
+// (Builder.CylindricalLens returns an error); the analyses and matrix
+// accessors, which cannot fail on this account, read any value other than
+// Sagittal as Tangential.
 type Plane int
 
 // The two planes.
