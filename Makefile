@@ -55,9 +55,16 @@ nbtest: kernel
 bench:
 	$(GO) test -run '^$$' -bench . -benchmem ./opticslib/...
 
+# With KERNEL_SCOPE=user the kernelspec is in the per-user data dir, which
+# jupyter_client finds by itself.
+ifeq ($(KERNEL_SCOPE),user)
+LATENCY_ENV :=
+else
+LATENCY_ENV := JUPYTER_DATA_DIR='$(CURDIR)/$(STATE)/jupyter' JUPYTER_PATH='$(CURDIR)/$(STATE)/jupyter'
+endif
+
 latency: kernel
-	JUPYTER_DATA_DIR=$(CURDIR)/$(STATE)/jupyter JUPYTER_PATH=$(CURDIR)/$(STATE)/jupyter \
-		$(PYTHON) kernel/latency.py
+	$(LATENCY_ENV) $(PYTHON) kernel/latency.py
 
 clean:
 	rm -rf $(STATE) build

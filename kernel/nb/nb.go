@@ -26,8 +26,8 @@ import (
 	"html"
 	"io"
 	"os"
+	"path/filepath"
 	"strings"
-	"unicode/utf8"
 
 	"github.com/beamnote/beamnote/kernel/internal/atomicfile"
 	"github.com/janpfeifer/gonb/gonbui"
@@ -63,7 +63,7 @@ func SVG(svg []byte, caption string) error {
 	if !InNotebook() {
 		fmt.Fprintf(out(), "[figure: %s (%d bytes of SVG)]\n", caption, len(svg))
 		if dir := os.Getenv("BEAMNOTE_FIGURE_DIR"); dir != "" {
-			path := strings.TrimRight(dir, "/") + "/" + fileName(caption) + ".svg"
+			path := filepath.Join(dir, fileName(caption)+".svg")
 			if err := SaveSVG(path, svg); err != nil {
 				return err
 			}
@@ -71,11 +71,10 @@ func SVG(svg []byte, caption string) error {
 		}
 		return nil
 	}
-	inline := stripXMLHeader(svg)
 	gonbui.SendData(&protocol.DisplayData{
 		Data: map[protocol.MIMEType]any{
 			protocol.MIMEImageSVG:  string(svg),
-			protocol.MIMETextHTML:  `<div class="beamnote-figure" title="` + html.EscapeString(caption) + `">` + inline + `</div>`,
+			protocol.MIMETextHTML:  figureHTML(svg, caption),
 			protocol.MIMETextPlain: "[figure: " + caption + "]",
 		},
 	})
@@ -125,6 +124,12 @@ func sync() error {
 	return nil
 }
 
+// figureHTML is the inline-HTML copy of a figure; the caption is escaped
+// for an attribute value.
+func figureHTML(svg []byte, caption string) string {
+	return `<div class="beamnote-figure" title="` + html.EscapeString(caption) + `">` + stripXMLHeader(svg) + `</div>`
+}
+
 func stripXMLHeader(svg []byte) string {
 	s := string(svg)
 	if strings.HasPrefix(s, "<?xml") {
@@ -150,8 +155,8 @@ func fileName(caption string) string {
 	if s == "" {
 		s = "figure"
 	}
-	if utf8.RuneCountInString(s) > 60 {
-		s = s[:60]
+	if len(s) > 60 { // s is ASCII
+		s = strings.TrimRight(s[:60], "-")
 	}
 	return s
 }

@@ -78,3 +78,24 @@ func TestStripXMLHeader(t *testing.T) {
 		t.Errorf("stripXMLHeader = %q", got)
 	}
 }
+
+func TestFigureHTMLEscapesCaption(t *testing.T) {
+	got := figureHTML([]byte(`<?xml version="1.0"?><svg/>`), `w0 < 1 "mm" & 'f'`)
+	want := `<div class="beamnote-figure" title="w0 &lt; 1 &#34;mm&#34; &amp; &#39;f&#39;"><svg/></div>`
+	if got != want {
+		t.Errorf("figureHTML = %s, want %s", got, want)
+	}
+}
+
+func TestFileName(t *testing.T) {
+	for _, test := range []struct{ caption, want string }{
+		{"Caustic: expander 3×", "caustic-expander-3"},
+		{"  ", "figure"},
+		{"µ", "figure"},
+		{strings.Repeat("a", 59) + " b", strings.Repeat("a", 59)},
+	} {
+		if got := fileName(test.caption); got != test.want {
+			t.Errorf("fileName(%q) = %q, want %q", test.caption, got, test.want)
+		}
+	}
+}

@@ -30,6 +30,21 @@
 // cells' "go build -mod=mod" adds any requirement the module cache holds.
 // Every other invocation is handed to the real go command unchanged.
 //
+// # Kernel environment
+//
+// kernel.json sets GOPROXY=off, GOTOOLCHAIN=local and GOFLAGS=[CellGoFlags]
+// for the kernel process, and "!" shell commands in cells inherit them: a
+// "!go get example.com/m" fails offline by design, and "-mod=mod" lets a
+// "!go build" run inside a module update that module's go.mod. Prefix such a
+// command with "GOFLAGS=" (or "GOPROXY=https://proxy.golang.org") to opt
+// out. Two kernels running at once share nothing but the build cache (safe
+// for concurrent use) and the log file, which klog opens for appending
+// (each kernel starts it afresh once it has written 20 MB to it).
+//
+// kernel.json, the wrapper and the logs hold absolute paths of the
+// checkout. After moving the checkout, run "make kernel" again; the doctor
+// and "serve" report a kernelspec written for another checkout.
+//
 // # Build cache
 //
 // [Warm] compiles a program that imports every package of the checkout with

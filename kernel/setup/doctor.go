@@ -83,35 +83,84 @@ func Doctor(l Layout, user bool) []Check {
 	if serr == nil && shimRealGo(b) != l.RealGo {
 		serr = fmt.Errorf("%s calls %s, but go is %s", l.shimPath(), shimRealGo(b), l.RealGo)
 	}
+	if serr == nil && shimRoot(b) != l.Root {
+		serr = fmt.Errorf("%s makes cells import the checkout at %s, but this checkout is %s (moved or copied)", l.shimPath(), shimRoot(b), l.Root)
+	}
 	add("go wrapper for cells", serr, l.shimPath(), "run `make kernel`")
 
-	dataDir := l.JupyterData()
-	if user {
-		if d, err := UserJupyterData(); err == nil {
-			dataDir = d
-		}
+	kj, kerr := l.KernelspecPath(user)
+	if kerr == nil {
+		kerr = l.checkKernelspec(kj)
 	}
-	kj := filepath.Join(KernelDir(dataDir), "kernel.json")
-	add("kernelspec "+KernelName, checkKernelspec(kj), kj, "run `make kernel` (or `make kernel KERNEL_SCOPE=user`)")
+	add("kernelspec "+KernelName, kerr, kj, "run `make kernel` (or `make kernel KERNEL_SCOPE=user`)")
 
 	add("warm build cache", l.checkWarm(), "opticslib and its dependencies compiled for cells", "run `make kernel`")
 	return cs
 }
 
-func checkKernelspec(path string) error {
+// KernelspecPath returns the kernel.json that the kernel uses: the
+// project-local one, or the per-user one if user is set.
+func (l Layout) KernelspecPath(user bool) (string, error) {
+	dataDir := l.JupyterData()
+	if user {
+		d, err := UserJupyterData()
+		if err != nil {
+			return "", err
+		}
+		dataDir = d
+	}
+	return filepath.Join(KernelDir(dataDir), "kernel.json"), nil
+}
+
+// CheckKernelspec reports an error unless the kernelspec (project-local, or
+// per-user if user is set) exists and launches this checkout's kernel.
+func (l Layout) CheckKernelspec(user bool) error {
+	kj, err := l.KernelspecPath(user)
+	if err != nil {
+		return err
+	}
+	return l.checkKernelspec(kj)
+}
+
+// checkKernelspec reports an error unless the kernelspec at path launches
+// this checkout's gonb with this checkout's go wrapper. kernel.json holds
+// absolute paths, so a checkout that moved, or a per-user kernelspec written
+// from another checkout, runs the wrong code or nothing.
+func (l Layout) checkKernelspec(path string) error {
 	b, err := os.ReadFile(path)
 	if err != nil {
 		return err
 	}
-	var spec kernelspec
+	var spec struct {
+		Argv     []string          `json:"argv"`
+		Env      map[string]string `json:"env"`
+		Metadata struct {
+			Beamnote struct {
+				Root string `json:"root"`
+			} `json:"beamnote"`
+		} `json:"metadata"`
+	}
 	if err := json.Unmarshal(b, &spec); err != nil {
 		return fmt.Errorf("%s: %w", path, err)
 	}
 	if len(spec.Argv) == 0 {
 		return fmt.Errorf("%s: empty argv", path)
 	}
+	root := spec.Metadata.Beamnote.Root
+	if root == "" {
+		root = spec.Env["BEAMNOTE_ROOT"]
+	}
+	if root != l.Root {
+		return fmt.Errorf("%s was written for the checkout at %q, not this one (%s): the checkout moved, or another checkout installed it", path, root, l.Root)
+	}
+	if want := filepath.Join(l.Bin(), "gonb"); spec.Argv[0] != want {
+		return fmt.Errorf("%s launches %s, want %s", path, spec.Argv[0], want)
+	}
 	if _, err := os.Stat(spec.Argv[0]); err != nil {
 		return fmt.Errorf("%s launches %s, which is missing", path, spec.Argv[0])
+	}
+	if first, _, _ := strings.Cut(spec.Env["PATH"], string(os.PathListSeparator)); first != l.ShimDir() {
+		return fmt.Errorf("%s: PATH does not start with the go wrapper's directory %s", path, l.ShimDir())
 	}
 	return nil
 }
@@ -135,7 +184,7 @@ func (l Layout) checkWarm() error {
 	}
 	cmd := exec.Command(l.shimPath(), append([]string{"list", "-f", "{{if .Stale}}{{.ImportPath}}: {{.StaleReason}}{{end}}"}, pkgs...)...)
 	cmd.Dir = dir
-	cmd.Env = environ(env)
+	cmd.Env = Environ(env)
 	out, err := cmd.Output()
 	if err != nil {
 		return fmt.Errorf("go list in a cell module: %w", err)

@@ -175,7 +175,7 @@ func (l Layout) run(log io.Writer, dir string, env map[string]string, name strin
 	cmd := exec.Command(name, args...)
 	cmd.Dir = dir
 	if env != nil {
-		cmd.Env = environ(env)
+		cmd.Env = Environ(env)
 	}
 	cmd.Stdout, cmd.Stderr = log, log
 	if err := cmd.Run(); err != nil {

@@ -93,7 +93,7 @@ func TestServeSmoke(t *testing.T) {
 		t.Fatal(err)
 	}
 	cmd := exec.Command(argv[0], argv[1:]...)
-	cmd.Env = environ(env)
+	cmd.Env = Environ(env)
 	if err := cmd.Start(); err != nil {
 		t.Fatal(err)
 	}

@@ -58,8 +58,14 @@ func multiline(raw json.RawMessage) string {
 }
 
 // crashRE matches what a cell program that panicked, was killed or called
-// os.Exit with a nonzero code leaves on its streams: gonb reports the cell as
-// done and nbconvert exits 0, so the outputs are the only evidence.
+// os.Exit with a nonzero code leaves on its standard error stream: gonb
+// reports the cell as done and nbconvert exits 0, so the outputs are the
+// only evidence. The Go runtime writes "panic: " and "fatal error: " there,
+// and gonb writes the *exec.ExitError ("exit status 3", "signal: killed") on
+// stderr too. Only stderr is searched, so a cell that prints, say,
+// "signal: 3.2 dB" with fmt.Println is not a crash; a cell that writes such
+// a line to os.Stderr itself (or runs a failing "!" shell command, which gonb
+// reports the same way) is reported, which is the safe side for a test.
 var crashRE = regexp.MustCompile(`(?m)^(panic: |fatal error: |exit status [1-9]|signal: )`)
 
 // CheckExecuted returns one problem per failing cell of an executed notebook:
@@ -84,6 +90,9 @@ func CheckExecuted(nb Notebook) []string {
 				}
 				problems = append(problems, msg)
 			case "stream":
+				if o.Name != "stderr" {
+					continue
+				}
 				if m := crashRE.FindString(multiline(o.Text)); m != "" {
 					problems = append(problems, fmt.Sprintf("%s: the cell program crashed (%q on %s)", where, strings.TrimSpace(m), o.Name))
 				}
@@ -181,21 +190,39 @@ func (l Layout) ExecuteNotebooks(paths []string, outDir string, user bool, log i
 	if len(paths) == 0 {
 		return fmt.Errorf("setup: no notebooks to execute")
 	}
-	if err := os.MkdirAll(outDir, 0o755); err != nil {
+	// nbconvert runs in the checkout; paths given relative to the caller's
+	// directory must still name the same files.
+	outDir, err := filepath.Abs(outDir)
+	if err != nil {
 		return err
+	}
+	abs := make([]string, len(paths))
+	for i, p := range paths {
+		if abs[i], err = filepath.Abs(p); err != nil {
+			return err
+		}
+	}
+	if err := os.MkdirAll(outDir, 0o755); err != nil {
+		return fmt.Errorf("setup: output directory for executed notebooks: %w", err)
 	}
 	env := l.JupyterEnv(user)
 	env["BEAMNOTE_HEADLESS"] = "1"
 	var all []string
-	for _, p := range paths {
+	seen := make(map[string]string) // output name → notebook
+	for i, p := range paths {
 		name := strings.TrimSuffix(filepath.Base(p), ".ipynb")
+		if q, ok := seen[name]; ok {
+			all = append(all, fmt.Sprintf("%s: same file name as %s; its results in %s would overwrite the other's", p, q, outDir))
+			continue
+		}
+		seen[name] = p
 		fmt.Fprintf(log, "beamnote: executing %s\n", p)
 		if err := l.run(log, l.Root, env, jup, "nbconvert", "--to", "notebook", "--execute",
 			"--ExecutePreprocessor.kernel_name="+KernelName,
 			"--ExecutePreprocessor.timeout=600",
 			// Run every cell and report all failures below, not only the first.
 			"--allow-errors",
-			"--output-dir", outDir, "--output", name, p); err != nil {
+			"--output-dir", outDir, "--output", name, abs[i]); err != nil {
 			all = append(all, fmt.Sprintf("%s: %v", p, err))
 			continue
 		}

@@ -156,10 +156,19 @@ func (l Layout) KernelEnv() (map[string]string, error) {
 	}, nil
 }
 
-// environ turns an environment map into os/exec form over the current
-// environment, in sorted order.
-func environ(m map[string]string) []string {
-	env := os.Environ()
+// Environ returns the current environment with the variables of m set, in
+// os/exec form: every name of m replaces any inherited value of the same name
+// (removed, not shadowed, since programs differ in which duplicate they read:
+// Python's os.environ keeps the first), and m's entries follow in sorted
+// order.
+func Environ(m map[string]string) []string {
+	var env []string
+	for _, kv := range os.Environ() {
+		name, _, _ := strings.Cut(kv, "=")
+		if _, ok := m[name]; !ok {
+			env = append(env, kv)
+		}
+	}
 	keys := make([]string, 0, len(m))
 	for k := range m {
 		keys = append(keys, k)

@@ -203,3 +203,160 @@ func TestShellQuote(t *testing.T) {
 		}
 	}
 }
+
+func TestEnvironReplacesInheritedValues(t *testing.T) {
+	t.Setenv("JUPYTER_DATA_DIR", "/inherited")
+	t.Setenv("BEAMNOTE_TEST_KEEP", "kept")
+	env := Environ(map[string]string{"JUPYTER_DATA_DIR": "/project"})
+	var got []string
+	keep := false
+	for _, kv := range env {
+		if v, ok := strings.CutPrefix(kv, "JUPYTER_DATA_DIR="); ok {
+			got = append(got, v)
+		}
+		keep = keep || kv == "BEAMNOTE_TEST_KEEP=kept"
+	}
+	if len(got) != 1 || got[0] != "/project" {
+		t.Errorf("Environ: JUPYTER_DATA_DIR values %q, want exactly [/project]", got)
+	}
+	if !keep {
+		t.Errorf("Environ dropped an unrelated inherited variable")
+	}
+}
+
+// A checkout path with a space and a single quote must survive the shim's
+// quoting: into the script, back out of it, and into the cell's go.mod.
+func TestShimQuotesOddCheckoutPath(t *testing.T) {
+	goCmd, err := exec.LookPath("go")
+	if err != nil {
+		t.Skip("no go command")
+	}
+	real, err := FindLayout(".")
+	if err != nil {
+		t.Fatal(err)
+	}
+	root := filepath.Join(t.TempDir(), `o'brien's "optics" $HOME`)
+	if err := os.MkdirAll(root, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	sum, err := os.ReadFile(filepath.Join(real.Root, "go.sum"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(filepath.Join(root, "go.sum"), sum, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	l := Layout{Root: root, State: filepath.Join(root, ".beamnote")}
+	l.RealGo, _ = filepath.Abs(goCmd)
+	script := l.shimScript()
+	if got := shimRoot(script); got != root {
+		t.Errorf("shimRoot(script) = %q, want %q", got, root)
+	}
+	if got := shimRealGo(script); got != l.RealGo {
+		t.Errorf("shimRealGo(script) = %q, want %q", got, l.RealGo)
+	}
+	if err := os.MkdirAll(l.ShimDir(), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(l.shimPath(), script, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	cell := t.TempDir()
+	cmd := exec.Command(l.shimPath(), "mod", "init", "gonb_test")
+	cmd.Dir = cell
+	cmd.Env = append(os.Environ(), "GONB_TMP_DIR="+cell, "GOFLAGS=", "GOPROXY=off")
+	if out, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("shim mod init: %v\n%s", err, out)
+	}
+	cmd = exec.Command(l.RealGo, "mod", "edit", "-json")
+	cmd.Dir = cell
+	out, err := cmd.Output()
+	if err != nil {
+		t.Fatal(err)
+	}
+	var mod struct {
+		Replace []struct{ New struct{ Path string } }
+	}
+	if err := json.Unmarshal(out, &mod); err != nil {
+		t.Fatal(err)
+	}
+	if len(mod.Replace) != 1 || mod.Replace[0].New.Path != root {
+		t.Errorf("cell go.mod replace = %+v, want => %q", mod.Replace, root)
+	}
+}
+
+func TestShimVarRoundTrip(t *testing.T) {
+	for _, v := range []string{"/usr/local/go/bin/go", "/a'", "'/b", "/c d/''/e"} {
+		l := Layout{Root: v, RealGo: v}
+		s := l.shimScript()
+		if got := shimRoot(s); got != v {
+			t.Errorf("shimRoot(script for %q) = %q", v, got)
+		}
+		if got := shimRealGo(s); got != v {
+			t.Errorf("shimRealGo(script for %q) = %q", v, got)
+		}
+	}
+}
+
+// The doctor must not pass a kernelspec written by another checkout (a
+// moved checkout, or a per-user kernelspec installed from a second clone).
+func TestCheckKernelspecStale(t *testing.T) {
+	dir := t.TempDir()
+	mine := Layout{Root: filepath.Join(dir, "mine"), State: filepath.Join(dir, "mine", ".beamnote")}
+	other := Layout{Root: filepath.Join(dir, "other"), State: filepath.Join(dir, "other", ".beamnote")}
+	for _, l := range []Layout{mine, other} {
+		if err := os.MkdirAll(l.Bin(), 0o755); err != nil {
+			t.Fatal(err)
+		}
+		if err := os.WriteFile(filepath.Join(l.Bin(), "gonb"), nil, 0o755); err != nil {
+			t.Fatal(err)
+		}
+	}
+	write := func(l Layout) string {
+		spec := kernelspec{
+			Argv: []string{filepath.Join(l.Bin(), "gonb"), "--kernel", "{connection_file}"},
+			Env:  map[string]string{"PATH": l.ShimDir() + string(os.PathListSeparator) + "/usr/bin", "BEAMNOTE_ROOT": l.Root},
+			Metadata: map[string]any{
+				"beamnote": map[string]string{"root": l.Root},
+			},
+		}
+		b, err := json.Marshal(spec)
+		if err != nil {
+			t.Fatal(err)
+		}
+		p := filepath.Join(t.TempDir(), "kernel.json")
+		if err := os.WriteFile(p, b, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		return p
+	}
+	if err := mine.checkKernelspec(write(mine)); err != nil {
+		t.Errorf("checkKernelspec(own kernelspec) = %v, want nil", err)
+	}
+	err := mine.checkKernelspec(write(other))
+	if err == nil || !strings.Contains(err.Error(), other.Root) {
+		t.Errorf("checkKernelspec(other checkout's kernelspec) = %v, want an error naming %s", err, other.Root)
+	}
+}
+
+func TestCrashOnlyOnStderr(t *testing.T) {
+	out := func(name, text string) Output {
+		raw, _ := json.Marshal(text)
+		return Output{OutputType: "stream", Name: name, Text: raw}
+	}
+	svg := Output{OutputType: "display_data", Data: map[string]json.RawMessage{"image/svg+xml": json.RawMessage(`"<svg/>"`)}}
+	for _, test := range []struct {
+		out  Output
+		want int
+	}{
+		{out("stdout", "signal: 3.2 dB\nexit status 1 is what the tool returned\n"), 0},
+		{out("stderr", "exit status 3\n"), 1},
+		{out("stderr", "signal: killed\n"), 1},
+		{out("stderr", "the detector signal: 3 dB\n"), 0},
+	} {
+		nb := Notebook{Cells: []Cell{{CellType: "code", Source: json.RawMessage(`"x"`), Outputs: []Output{test.out, svg}}}}
+		if got := CheckExecuted(nb); len(got) != test.want {
+			t.Errorf("CheckExecuted(%s %q) = %q, want %d problems", test.out.Name, multiline(test.out.Text), got, test.want)
+		}
+	}
+}

@@ -40,13 +40,20 @@ exec "$REAL_GO" "$@"
 }
 
 // shimRealGo reads REAL_GO back from a wrapper script, or returns "".
-func shimRealGo(script []byte) string {
+func shimRealGo(script []byte) string { return shimVar(script, "REAL_GO") }
+
+// shimRoot reads ROOT (the checkout) back from a wrapper script, or returns "".
+func shimRoot(script []byte) string { return shimVar(script, "ROOT") }
+
+// shimVar reads back an assignment name='value' written with [shellQuote].
+func shimVar(script []byte, name string) string {
 	if !bytes.Contains(script, []byte(shimMarker)) {
 		return ""
 	}
 	for _, line := range strings.Split(string(script), "\n") {
-		if v, ok := strings.CutPrefix(line, "REAL_GO="); ok {
-			return strings.ReplaceAll(strings.Trim(v, "'"), `'\''`, "'")
+		if v, ok := strings.CutPrefix(line, name+"="); ok {
+			v = strings.TrimSuffix(strings.TrimPrefix(v, "'"), "'")
+			return strings.ReplaceAll(v, `'\''`, "'")
 		}
 	}
 	return ""

@@ -68,15 +68,14 @@ func main() {
 		if err != nil {
 			fail(err)
 		}
+		if err := l.CheckKernelspec(*user); err != nil {
+			fmt.Fprintf(os.Stderr, "beamnote: warning: %v\nbeamnote: run `make kernel` (or `beamnote-kernel install`) first; `make doctor` lists what else is missing\n", err)
+		}
 		if err := l.SignNotebooks(*user); err != nil {
 			fmt.Fprintln(os.Stderr, "beamnote: warning:", err)
 		}
 		fmt.Printf("\nbeamnote: serving %s\nbeamnote: open %s\n\n", filepath.Join(l.Root, "notebooks"), url)
-		environ := os.Environ()
-		for k, v := range env {
-			environ = append(environ, k+"="+v)
-		}
-		if err := syscall.Exec(argv[0], argv, environ); err != nil {
+		if err := syscall.Exec(argv[0], argv, setup.Environ(env)); err != nil {
 			fail(fmt.Errorf("starting %s: %w", argv[0], err))
 		}
 	case "test":
