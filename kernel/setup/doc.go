@@ -25,19 +25,22 @@
 //	replace github.com/beamnote/beamnote => <checkout>
 //
 // with the checkout's requirements and go.sum, so cells import any opticslib
-// package with GOPROXY=off and no set-up cell. With GOPROXY=off the wrapper
-// also skips gonb's bare per-cell "go get", which could fetch nothing: the
-// cells' "go build -mod=mod" adds any requirement the module cache holds.
-// Every other invocation is handed to the real go command unchanged.
+// package with GOPROXY=off and no set-up cell. In the cell module the
+// wrapper also adds [CellGoFlags] to "go build" and "go test", and, with
+// GOPROXY=off, skips gonb's bare per-cell "go get", which could fetch
+// nothing: the cells' "go build -mod=mod" adds any requirement the module
+// cache holds. Every other invocation, and every invocation outside the cell
+// module, is handed to the real go command unchanged.
 //
 // # Kernel environment
 //
-// kernel.json sets GOPROXY=off, GOTOOLCHAIN=local and GOFLAGS=[CellGoFlags]
-// for the kernel process, and "!" shell commands in cells inherit them: a
-// "!go get example.com/m" fails offline by design, and "-mod=mod" lets a
-// "!go build" run inside a module update that module's go.mod. Prefix such a
-// command with "GOFLAGS=" (or "GOPROXY=https://proxy.golang.org") to opt
-// out. Two kernels running at once share nothing but the build cache (safe
+// kernel.json sets GOPROXY=off and GOTOOLCHAIN=local for the kernel
+// process, and "!" shell commands in cells inherit them: a
+// "!go get example.com/m" fails offline by design; prefix it with
+// "GOPROXY=https://proxy.golang.org" (or run "%env GOPROXY ..." first) to
+// fetch. The cell build flags are not in the environment (the wrapper adds
+// them inside the cell module only), so "!go build" elsewhere runs as it
+// would in a terminal. Two kernels running at once share nothing but the build cache (safe
 // for concurrent use) and the log file, which klog opens for appending
 // (each kernel starts it afresh once it has written 20 MB to it).
 //

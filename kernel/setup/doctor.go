@@ -182,7 +182,7 @@ func (l Layout) checkWarm() error {
 	if err != nil {
 		return err
 	}
-	cmd := exec.Command(l.shimPath(), append([]string{"list", "-f", "{{if .Stale}}{{.ImportPath}}: {{.StaleReason}}{{end}}"}, pkgs...)...)
+	cmd := exec.Command(l.shimPath(), append([]string{"list", "-mod=mod", "-f", "{{if .Stale}}{{.ImportPath}}: {{.StaleReason}}{{end}}"}, pkgs...)...)
 	cmd.Dir = dir
 	cmd.Env = Environ(env)
 	out, err := cmd.Output()

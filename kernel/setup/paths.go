@@ -127,10 +127,13 @@ func (l Layout) goEnv(names ...string) (map[string]string, error) {
 }
 
 // CellGoFlags are the build flags of every cell (and of [Warm], which must
-// match them for the build cache to hit). -mod=mod lets "go get" and
-// "go build" update the cell's go.mod; -ldflags=-w omits DWARF debug
+// match them for the build cache to hit). The go wrapper adds them to
+// "go build" and "go test" in gonb's cell module only, so "!go" commands in
+// cells run with the user's own flags. -mod=mod lets "go build" add missing
+// requirements to the cell's go.mod; -ldflags=-w omits DWARF debug
 // information, which shortens linking of plotting cells (stack traces still
-// carry file and line from the runtime's own tables).
+// carry file and line from the runtime's own tables). No value may contain
+// a space: the wrapper splits the list into words.
 const CellGoFlags = "-mod=mod -ldflags=-w"
 
 // KernelEnv is the environment written into kernel.json and used by [Warm]
@@ -147,7 +150,6 @@ func (l Layout) KernelEnv() (map[string]string, error) {
 	return map[string]string{
 		"PATH":          path,
 		"GOPROXY":       "off",
-		"GOFLAGS":       CellGoFlags,
 		"GOTOOLCHAIN":   "local",
 		"GOCACHE":       ge["GOCACHE"],
 		"GOMODCACHE":    ge["GOMODCACHE"],

@@ -360,3 +360,47 @@ func TestCrashOnlyOnStderr(t *testing.T) {
 		}
 	}
 }
+
+// TestShimAddsCellFlags runs the wrapper over a stand-in for the real go
+// command that records its arguments: in the cell module "go build" and
+// "go test" get CellGoFlags; elsewhere, and for other commands, the
+// arguments pass unchanged.
+func TestShimAddsCellFlags(t *testing.T) {
+	state := t.TempDir()
+	record := filepath.Join(state, "args")
+	fake := filepath.Join(state, "fakego")
+	if err := os.WriteFile(fake, []byte("#!/bin/sh\necho \"$@\" > "+shellQuote(record)+"\n"), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	l := Layout{Root: t.TempDir(), State: state, RealGo: fake}
+	if err := os.MkdirAll(l.ShimDir(), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(l.shimPath(), l.shimScript(), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	cell, other := t.TempDir(), t.TempDir()
+	for _, test := range []struct {
+		dir  string
+		args []string
+		want string
+	}{
+		{cell, []string{"build", "-o", "bin"}, "build " + CellGoFlags + " -o bin"},
+		{cell, []string{"test", "-c", "-o", "bin"}, "test " + CellGoFlags + " -c -o bin"},
+		{cell, []string{"vet", "."}, "vet ."},
+		{other, []string{"build", "-o", "bin"}, "build -o bin"},
+	} {
+		os.Remove(record)
+		cmd := exec.Command(l.shimPath(), test.args...)
+		cmd.Dir = test.dir
+		cmd.Env = Environ(map[string]string{"GONB_TMP_DIR": cell})
+		if out, err := cmd.CombinedOutput(); err != nil {
+			t.Errorf("shim %v: %v\n%s", test.args, err, out)
+			continue
+		}
+		got, _ := os.ReadFile(record)
+		if strings.TrimSpace(string(got)) != test.want {
+			t.Errorf("shim %v in %s called go with %q, want %q", test.args, test.dir, strings.TrimSpace(string(got)), test.want)
+		}
+	}
+}

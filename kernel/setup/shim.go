@@ -15,27 +15,43 @@ func (l Layout) shimScript() []byte {
 	var b bytes.Buffer
 	fmt.Fprintf(&b, `#!/bin/sh
 %s: written by "beamnote-kernel install"; do not edit.
-# When gonb creates its cell module ("go mod init" in $GONB_TMP_DIR), make the
-# checkout importable offline: require and replace %s and copy the
-# checkout's go.sum. With GOPROXY=off, gonb's per-cell "go get" (no package
-# arguments) is skipped: it could fetch nothing, and "go build -mod=mod" adds
-# any requirement that the module cache can satisfy by itself.
-# Every other call goes to the real go command unchanged.
+# Only in gonb's cell module ($GONB_TMP_DIR) does it do anything of its own:
+# - "go mod init": make the checkout importable offline (require and replace
+#   %s, copy the checkout's go.sum);
+# - "go build" and "go test": add the cell build flags %s;
+# - a bare "go get" (what gonb runs per cell) with GOPROXY=off: skipped, as it
+#   could fetch nothing and "go build -mod=mod" adds any requirement the
+#   module cache holds.
+# Every other call, and every call elsewhere, goes to the real go command
+# unchanged.
 REAL_GO=%s
 ROOT=%s
-if [ "$1" = get ] && [ "$GOPROXY" = off ] && { [ $# = 1 ] || { [ $# = 2 ] && [ "$2" = -t ]; }; } &&
-	[ -n "$GONB_TMP_DIR" ] && [ "$(pwd -P)" = "$(cd "$GONB_TMP_DIR" && pwd -P)" ]; then
-	exit 0
-fi
-if [ "$1" = mod ] && [ "$2" = init ] && [ -n "$GONB_TMP_DIR" ] &&
-	[ "$(pwd -P)" = "$(cd "$GONB_TMP_DIR" && pwd -P)" ]; then
-	"$REAL_GO" "$@" || exit $?
-	"$REAL_GO" mod edit -require=%s@v0.0.0 -replace=%s="$ROOT" || exit $?
-	cp "$ROOT/go.sum" go.sum || exit $?
-	exit 0
+FLAGS=%s
+if [ -n "$GONB_TMP_DIR" ] && [ "$(pwd -P)" = "$(cd "$GONB_TMP_DIR" 2>/dev/null && pwd -P)" ]; then
+	case "$1" in
+	build | test)
+		cmd=$1
+		shift
+		# $FLAGS is split into words on purpose.
+		exec "$REAL_GO" "$cmd" $FLAGS "$@"
+		;;
+	get)
+		if [ "$GOPROXY" = off ] && { [ $# = 1 ] || { [ $# = 2 ] && [ "$2" = -t ]; }; }; then
+			exit 0
+		fi
+		;;
+	mod)
+		if [ "$2" = init ]; then
+			"$REAL_GO" "$@" || exit $?
+			"$REAL_GO" mod edit -require=%s@v0.0.0 -replace=%s="$ROOT" || exit $?
+			cp "$ROOT/go.sum" go.sum || exit $?
+			exit 0
+		fi
+		;;
+	esac
 fi
 exec "$REAL_GO" "$@"
-`, shimMarker, ModulePath, shellQuote(l.RealGo), shellQuote(l.Root), ModulePath, ModulePath)
+`, shimMarker, ModulePath, CellGoFlags, shellQuote(l.RealGo), shellQuote(l.Root), shellQuote(CellGoFlags), ModulePath, ModulePath)
 	return b.Bytes()
 }
 
