@@ -110,7 +110,7 @@ func TestM2Siegman(t *testing.T) {
 }
 
 func TestBadInput(t *testing.T) {
-	// Issue 4 item 6: w ≤ 0, λ ≤ 0, M² < 1 and NaN give errors that name
+	// Bad input (w ≤ 0, λ ≤ 0, M² < 1, NaN) gives errors that name
 	// the parameter and its value.
 	nan := math.NaN()
 	good := mustWaist(t, 1*mm, 0, 633*nm, 1)
