@@ -171,14 +171,20 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (*plot.Plot, e
 
 	legend := false
 	if len(cfg.rays) > 0 {
+		// The transfer matrix to each sample plane is the same for every
+		// ray: compute it once, not once per ray.
+		ms := make([]paraxial.Matrix, n)
+		for i, z := range c.Z {
+			m, err := sys.MatrixTo(units.Length(z))
+			if err != nil {
+				return nil, err
+			}
+			ms[i] = m
+		}
 		var first *plotter.Line
 		for _, r := range cfg.rays {
 			xys := make(plotter.XYs, n)
-			for i, z := range c.Z {
-				m, err := sys.MatrixTo(units.Length(z))
-				if err != nil {
-					return nil, err
-				}
+			for i, m := range ms {
 				y := float64(m.Apply(r).Y) * 1e3
 				if !finite(y) {
 					return nil, ErrCaustic
