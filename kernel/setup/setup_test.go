@@ -105,6 +105,36 @@ func TestServeCommandRefusesRemoteAndAlwaysHasToken(t *testing.T) {
 	}
 }
 
+// installShim writes l's go wrapper under l.ShimDir and checks that the
+// go command it calls reads back from the script.
+func installShim(t *testing.T, l Layout) {
+	t.Helper()
+	script := l.shimScript()
+	if got := shimRealGo(script); got != l.RealGo {
+		t.Errorf("shimRealGo(script) = %q, want %q", got, l.RealGo)
+	}
+	if err := os.MkdirAll(l.ShimDir(), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(l.shimPath(), script, 0o755); err != nil {
+		t.Fatal(err)
+	}
+}
+
+// shimModInit runs "go mod init" through the wrapper in a new cell
+// directory, as gonb does, and returns the directory.
+func shimModInit(t *testing.T, l Layout) string {
+	t.Helper()
+	cell := t.TempDir()
+	cmd := exec.Command(l.shimPath(), "mod", "init", "gonb_test")
+	cmd.Dir = cell
+	cmd.Env = append(os.Environ(), "GONB_TMP_DIR="+cell, "GOFLAGS=", "GOPROXY=off")
+	if out, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("shim mod init: %v\n%s", err, out)
+	}
+	return cell
+}
+
 func TestShimMakesCellModule(t *testing.T) {
 	goCmd, err := exec.LookPath("go")
 	if err != nil {
@@ -116,23 +146,8 @@ func TestShimMakesCellModule(t *testing.T) {
 	}
 	l.State = t.TempDir()
 	l.RealGo, _ = filepath.Abs(goCmd)
-	if err := os.MkdirAll(l.ShimDir(), 0o755); err != nil {
-		t.Fatal(err)
-	}
-	script := l.shimScript()
-	if got := shimRealGo(script); got != l.RealGo {
-		t.Errorf("shimRealGo(script) = %q, want %q", got, l.RealGo)
-	}
-	if err := os.WriteFile(l.shimPath(), script, 0o755); err != nil {
-		t.Fatal(err)
-	}
-	cell := t.TempDir()
-	cmd := exec.Command(l.shimPath(), "mod", "init", "gonb_test")
-	cmd.Dir = cell
-	cmd.Env = append(os.Environ(), "GONB_TMP_DIR="+cell, "GOFLAGS=", "GOPROXY=off")
-	if out, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("shim mod init: %v\n%s", err, out)
-	}
+	installShim(t, l)
+	cell := shimModInit(t, l)
 	gomod, _ := os.ReadFile(filepath.Join(cell, "go.mod"))
 	for _, want := range []string{"require " + ModulePath + " v0.0.0", "replace " + ModulePath + " => " + l.Root} {
 		if !strings.Contains(string(gomod), want) {
@@ -151,7 +166,7 @@ func TestShimMakesCellModule(t *testing.T) {
 	if err := os.WriteFile(filepath.Join(cell, "main.go"), []byte("package main\nimport _ \"example.com/not/required\"\nfunc main() {}\n"), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	cmd = exec.Command(l.shimPath(), "get")
+	cmd := exec.Command(l.shimPath(), "get")
 	cmd.Dir = cell
 	cmd.Env = append(os.Environ(), "GONB_TMP_DIR="+cell, "GOFLAGS=", "GOPROXY=off")
 	if out, err := cmd.CombinedOutput(); err != nil {
@@ -248,27 +263,12 @@ func TestShimQuotesOddCheckoutPath(t *testing.T) {
 	}
 	l := Layout{Root: root, State: filepath.Join(root, ".beamnote")}
 	l.RealGo, _ = filepath.Abs(goCmd)
-	script := l.shimScript()
-	if got := shimRoot(script); got != root {
+	if got := shimRoot(l.shimScript()); got != root {
 		t.Errorf("shimRoot(script) = %q, want %q", got, root)
 	}
-	if got := shimRealGo(script); got != l.RealGo {
-		t.Errorf("shimRealGo(script) = %q, want %q", got, l.RealGo)
-	}
-	if err := os.MkdirAll(l.ShimDir(), 0o755); err != nil {
-		t.Fatal(err)
-	}
-	if err := os.WriteFile(l.shimPath(), script, 0o755); err != nil {
-		t.Fatal(err)
-	}
-	cell := t.TempDir()
-	cmd := exec.Command(l.shimPath(), "mod", "init", "gonb_test")
-	cmd.Dir = cell
-	cmd.Env = append(os.Environ(), "GONB_TMP_DIR="+cell, "GOFLAGS=", "GOPROXY=off")
-	if out, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("shim mod init: %v\n%s", err, out)
-	}
-	cmd = exec.Command(l.RealGo, "mod", "edit", "-json")
+	installShim(t, l)
+	cell := shimModInit(t, l)
+	cmd := exec.Command(l.RealGo, "mod", "edit", "-json")
 	cmd.Dir = cell
 	out, err := cmd.Output()
 	if err != nil {
@@ -373,12 +373,7 @@ func TestShimAddsCellFlags(t *testing.T) {
 		t.Fatal(err)
 	}
 	l := Layout{Root: t.TempDir(), State: state, RealGo: fake}
-	if err := os.MkdirAll(l.ShimDir(), 0o755); err != nil {
-		t.Fatal(err)
-	}
-	if err := os.WriteFile(l.shimPath(), l.shimScript(), 0o755); err != nil {
-		t.Fatal(err)
-	}
+	installShim(t, l)
 	cell, other := t.TempDir(), t.TempDir()
 	for _, test := range []struct {
 		dir  string
