@@ -9,7 +9,8 @@
 #   make latency         measure notebook cell latency (see DEVELOPERS.md)
 #   make compare         the same work as the Go benchmarks, in NumPy, for comparison
 #
-# KERNEL_SCOPE=user installs the kernelspec for the user (~/.local/share/jupyter)
+# KERNEL_SCOPE=user installs the kernelspec in the per-user Jupyter data dir
+# (`jupyter --data-dir`: $JUPYTER_DATA_DIR, else $XDG_DATA_HOME/jupyter or ~/.local/share/jupyter)
 # instead of the project-local .beamnote/jupyter. NOTEBOOK_IP / NOTEBOOK_PORT
 # choose the address (loopback only unless BEAMNOTE_ALLOW_REMOTE=1).
 

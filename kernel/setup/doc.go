@@ -7,6 +7,7 @@
 // per-user kernelspec:
 //
 //	.beamnote/bin/gonb, goimports    tools built at the pinned versions
+//	.beamnote/bin/gonb-kernel        launcher of gonb that kernel.json runs (see below)
 //	.beamnote/bin/shim/go            wrapper of the go command (see below)
 //	.beamnote/jupyter/               Jupyter data dir (JUPYTER_DATA_DIR)
 //	.beamnote/jupyter/kernels/beamnote/kernel.json, logo-*.png, logo-svg.svg
@@ -36,17 +37,30 @@
 //
 // kernel.json sets GOPROXY=off and GOTOOLCHAIN=local for the kernel
 // process, and "!" shell commands in cells inherit them: a
-// "!go get example.com/m" fails offline by design; prefix it with
-// "GOPROXY=https://proxy.golang.org" (or run "%env GOPROXY ..." first) to
-// fetch. The cell build flags are not in the environment (the wrapper adds
-// them inside the cell module only), so "!go build" elsewhere runs as it
-// would in a terminal. Two kernels running at once share nothing but the build cache (safe
-// for concurrent use) and the log file, which klog opens for appending
-// (each kernel starts it afresh once it has written 20 MB to it).
+// "!go get example.com/m" fails offline by design; to fetch, set GOPROXY to
+// your module proxy (prefix the command with "GOPROXY=<your proxy>", or run
+// "%env GOPROXY=<your proxy>" first). kernel.json does not set PATH, since
+// kernelspec env values are taken literally and would replace the user's:
+// it runs the launcher .beamnote/bin/gonb-kernel, which puts the go wrapper,
+// the pinned tools and the go command's directory before the PATH that the
+// kernel inherits from the notebook server, so "!" commands find the user's
+// own programs. The cell build flags are not in the environment (the
+// wrapper adds them inside the cell module only), so "!go build" elsewhere
+// runs as it would in a terminal. Two kernels running at once share nothing
+// but the build cache (safe for concurrent use) and the log file, which klog
+// opens for appending (each kernel starts it afresh once it has written
+// 20 MB to it).
 //
-// kernel.json, the wrapper and the logs hold absolute paths of the
-// checkout. After moving the checkout, run "make kernel" again; the doctor
-// and "serve" report a kernelspec written for another checkout.
+// kernel.json, the launcher, the wrapper and the logs hold absolute paths
+// of the checkout. After moving the checkout, run "make kernel" again; the
+// doctor and "serve" report a kernelspec written for another checkout.
+//
+// # Notebook server
+//
+// [Layout.ServeCommand] passes the server's token in the environment
+// (JUPYTER_TOKEN), never on the command line, which every local user can
+// read in the process list; "beamnote-kernel serve" prints the URL once the
+// server answers it ([WaitServing]).
 //
 // # Build cache
 //

@@ -1,6 +1,7 @@
 package setup
 
 import (
+	"bytes"
 	"encoding/json"
 	"fmt"
 	"io"
@@ -34,11 +35,11 @@ func Doctor(l Layout, user bool) []Check {
 		cs = append(cs, c)
 	}
 
-	gv, err := l.output("", l.RealGo, "env", "GOVERSION")
+	ge, err := l.goEnv("GOVERSION")
 	if err == nil {
-		err = CheckGoVersion(l)
+		err = l.checkGoVersion(ge["GOVERSION"])
 	}
-	add("Go ≥ "+MinGo, err, strings.TrimSpace(gv)+" at "+l.RealGo, "install Go "+MinGo+" or newer from https://go.dev/dl and put it on PATH")
+	add("Go ≥ "+MinGo, err, ge["GOVERSION"]+" at "+l.RealGo, "install Go "+MinGo+" or newer from https://go.dev/dl and put it on PATH")
 
 	jup := Jupyter()
 	var jerr error
@@ -122,10 +123,11 @@ func (l Layout) CheckKernelspec(user bool) error {
 	return l.checkKernelspec(kj)
 }
 
-// checkKernelspec reports an error unless the kernelspec at path launches
-// this checkout's gonb with this checkout's go wrapper. kernel.json holds
-// absolute paths, so a checkout that moved, or a per-user kernelspec written
-// from another checkout, runs the wrong code or nothing.
+// checkKernelspec reports an error unless the kernelspec at path starts
+// this checkout's gonb through this checkout's launcher, which puts the go
+// wrapper first on PATH. kernel.json and the launcher hold absolute paths,
+// so a checkout that moved, or a per-user kernelspec written from another
+// checkout, runs the wrong code or nothing.
 func (l Layout) checkKernelspec(path string) error {
 	b, err := os.ReadFile(path)
 	if err != nil {
@@ -153,14 +155,21 @@ func (l Layout) checkKernelspec(path string) error {
 	if root != l.Root {
 		return fmt.Errorf("%s was written for the checkout at %q, not this one (%s): the checkout moved, or another checkout installed it", path, root, l.Root)
 	}
-	if want := filepath.Join(l.Bin(), "gonb"); spec.Argv[0] != want {
+	if want := l.launcherPath(); spec.Argv[0] != want {
 		return fmt.Errorf("%s launches %s, want %s", path, spec.Argv[0], want)
 	}
-	if _, err := os.Stat(spec.Argv[0]); err != nil {
+	if _, ok := spec.Env["PATH"]; ok {
+		return fmt.Errorf("%s sets PATH, which hides the user's PATH from the kernel", path)
+	}
+	b, err = os.ReadFile(spec.Argv[0])
+	if err != nil {
 		return fmt.Errorf("%s launches %s, which is missing", path, spec.Argv[0])
 	}
-	if first, _, _ := strings.Cut(spec.Env["PATH"], string(os.PathListSeparator)); first != l.ShimDir() {
-		return fmt.Errorf("%s: PATH does not start with the go wrapper's directory %s", path, l.ShimDir())
+	if !bytes.Equal(b, l.launcherScript()) {
+		return fmt.Errorf("%s was written for another checkout or go command", spec.Argv[0])
+	}
+	if _, err := os.Stat(filepath.Join(l.Bin(), "gonb")); err != nil {
+		return fmt.Errorf("%s starts %s, which is missing", spec.Argv[0], filepath.Join(l.Bin(), "gonb"))
 	}
 	return nil
 }

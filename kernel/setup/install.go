@@ -2,13 +2,13 @@ package setup
 
 import (
 	"encoding/json"
+	"errors"
 	"fmt"
+	"go/version"
 	"io"
 	"os"
 	"os/exec"
 	"path/filepath"
-	"regexp"
-	"strconv"
 	"strings"
 
 	"github.com/beamnote/beamnote/kernel/internal/atomicfile"
@@ -86,13 +86,17 @@ type kernelspec struct {
 	Metadata      map[string]any    `json:"metadata"`
 }
 
-// WriteKernelspec writes kernel.json and the logos under dataDir and returns
-// the kernelspec directory.
+// WriteKernelspec writes kernel.json and the logos under dataDir, and the
+// kernel launcher .beamnote/bin/gonb-kernel that kernel.json runs, and
+// returns the kernelspec directory. kernel.json's env is [Layout.KernelEnv]
+// without PATH: the launcher puts the kernel's directories before the PATH
+// that the kernel inherits, so that "!" commands in cells keep the user's.
 func (l Layout) WriteKernelspec(dataDir string) (string, error) {
 	env, err := l.KernelEnv()
 	if err != nil {
 		return "", err
 	}
+	delete(env, "PATH")
 	gonbVersion, err := l.PinnedVersion(gonbPkg)
 	if err != nil {
 		return "", err
@@ -100,7 +104,7 @@ func (l Layout) WriteKernelspec(dataDir string) (string, error) {
 	spec := kernelspec{
 		// gonb's own log (klog) goes to a file instead of the server's
 		// terminal, where it buried the URL and the cell errors.
-		Argv: []string{filepath.Join(l.Bin(), "gonb"), "--kernel", "{connection_file}",
+		Argv: []string{l.launcherPath(), "--kernel", "{connection_file}",
 			"--logtostderr=false", "--stderrthreshold=FATAL",
 			"--log_file=" + l.KernelLog(), "--log_file_max_size=20"},
 		DisplayName:   DisplayName,
@@ -116,10 +120,12 @@ func (l Layout) WriteKernelspec(dataDir string) (string, error) {
 		return "", err
 	}
 	kdir := KernelDir(dataDir)
-	if err := os.MkdirAll(filepath.Dir(l.KernelLog()), 0o755); err != nil {
-		return "", err
+	for _, d := range []string{filepath.Dir(l.KernelLog()), l.Bin(), kdir} {
+		if err := os.MkdirAll(d, 0o755); err != nil {
+			return "", err
+		}
 	}
-	if err := os.MkdirAll(kdir, 0o755); err != nil {
+	if err := atomicfile.Write(l.launcherPath(), l.launcherScript(), 0o755); err != nil {
 		return "", err
 	}
 	files := []struct {
@@ -149,23 +155,31 @@ func (l Layout) PinnedVersion(mod string) (string, error) {
 	return strings.TrimSpace(out), nil
 }
 
-var goVersionRE = regexp.MustCompile(`go(\d+)\.(\d+)`)
-
 // CheckGoVersion reports an error if the go command is older than [MinGo].
 func CheckGoVersion(l Layout) error {
-	out, err := l.output("", l.RealGo, "env", "GOVERSION")
+	ge, err := l.goEnv("GOVERSION")
 	if err != nil {
 		return err
 	}
-	m := goVersionRE.FindStringSubmatch(out)
-	if m == nil {
-		return fmt.Errorf("setup: cannot read the Go version from %q", strings.TrimSpace(out))
+	return l.checkGoVersion(ge["GOVERSION"])
+}
+
+// checkGoVersion reports an error if goVersion, the go command's GOVERSION
+// ("go1.26.8", or "devel go1.27-abcdef …" for a development build), is
+// older than [MinGo] or unreadable.
+func (l Layout) checkGoVersion(goVersion string) error {
+	v := ""
+	for _, f := range strings.Fields(goVersion) {
+		if version.IsValid(f) {
+			v = f
+			break
+		}
 	}
-	major, _ := strconv.Atoi(m[1])
-	minor, _ := strconv.Atoi(m[2])
-	wantMinor, _ := strconv.Atoi(strings.TrimPrefix(MinGo, "1."))
-	if major < 1 || (major == 1 && minor < wantMinor) {
-		return fmt.Errorf("setup: %s is %s; beamnote needs Go %s or newer (https://go.dev/dl)", l.RealGo, strings.TrimSpace(out), MinGo)
+	if v == "" {
+		return fmt.Errorf("setup: cannot read the Go version from %q", goVersion)
+	}
+	if version.Compare(v, "go"+MinGo) < 0 {
+		return fmt.Errorf("setup: %s is %s; beamnote needs Go %s or newer (https://go.dev/dl)", l.RealGo, goVersion, MinGo)
 	}
 	return nil
 }
@@ -191,7 +205,8 @@ func (l Layout) output(dir string, name string, args ...string) (string, error) 
 	out, err := cmd.Output()
 	if err != nil {
 		msg := ""
-		if ee, ok := err.(*exec.ExitError); ok {
+		var ee *exec.ExitError
+		if errors.As(err, &ee) {
 			msg = ": " + strings.TrimSpace(string(ee.Stderr))
 		}
 		return "", fmt.Errorf("setup: %s: %w%s", strings.Join(cmd.Args, " "), err, msg)

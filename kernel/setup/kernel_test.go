@@ -1,15 +1,18 @@
 package setup
 
 import (
+	"bytes"
+	"context"
 	"encoding/json"
 	"fmt"
 	"io"
+	"maps"
 	"net"
 	"net/http"
 	"os"
 	"os/exec"
 	"path/filepath"
-	"sort"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -69,8 +72,9 @@ func TestKernelSurvivesCrashes(t *testing.T) {
 // (ServeCommand), on a free loopback port, and checks through the Jupyter
 // REST API (jupyter_server documentation, "REST API": /api/kernelspecs,
 // /api/contents) that it serves notebooks/ with the beamnote kernel as the
-// default and refuses requests without the token. It needs `make kernel`
-// first and skips otherwise.
+// default and refuses requests without the token, and that the token is
+// on no process's command line (/proc/<pid>/cmdline, which every local user
+// can read). It needs `make kernel` first and skips otherwise.
 func TestServeSmoke(t *testing.T) {
 	if testing.Short() {
 		t.Skip("starts a Jupyter server")
@@ -110,29 +114,48 @@ func TestServeSmoke(t *testing.T) {
 	}()
 	token := url[strings.Index(url, "token=")+len("token="):]
 	base := fmt.Sprintf("http://127.0.0.1:%d", port)
+	ctx, cancel := context.WithTimeout(context.Background(), 60*time.Second)
+	defer cancel()
+	if err := WaitServing(ctx, url); err != nil {
+		t.Fatalf("notebook server on port %d: %v", port, err)
+	}
+	if _, err := os.Stat("/proc/self/cmdline"); err == nil {
+		// `jupyter notebook` execs jupyter-notebook in the same process.
+		b, err := os.ReadFile(fmt.Sprintf("/proc/%d/cmdline", cmd.Process.Pid))
+		if err != nil {
+			t.Errorf("reading the server's command line: %v", err)
+		}
+		if !bytes.Contains(b, []byte("notebook")) {
+			t.Errorf("process %d is not the notebook server: command line %q", cmd.Process.Pid, b)
+		}
+		if bytes.Contains(b, []byte(token)) {
+			t.Errorf("the token is on the server's command line %q", b)
+		}
+		// Nor on any other process's, such as a helper the server started.
+		procs, _ := filepath.Glob("/proc/[0-9]*/cmdline")
+		for _, p := range procs {
+			if b, err := os.ReadFile(p); err == nil && bytes.Contains(b, []byte(token)) {
+				t.Errorf("the token is on the command line of %s: %q", p, b)
+			}
+		}
+	}
 	var specs struct {
 		Default     string                     `json:"default"`
 		Kernelspecs map[string]json.RawMessage `json:"kernelspecs"`
 	}
-	deadline := time.Now().Add(60 * time.Second)
-	for {
-		resp, err := http.Get(base + "/api/kernelspecs?token=" + token)
-		if err == nil {
-			err = json.NewDecoder(resp.Body).Decode(&specs)
-			resp.Body.Close()
-			if err == nil {
-				break
-			}
-		}
-		if time.Now().After(deadline) {
-			t.Fatalf("notebook server on port %d did not answer: %v", port, err)
-		}
-		time.Sleep(300 * time.Millisecond)
+	resp, err := http.Get(base + "/api/kernelspecs?token=" + token)
+	if err != nil {
+		t.Fatal(err)
+	}
+	err = json.NewDecoder(resp.Body).Decode(&specs)
+	resp.Body.Close()
+	if err != nil {
+		t.Fatalf("/api/kernelspecs: %v", err)
 	}
 	if _, ok := specs.Kernelspecs[KernelName]; !ok || specs.Default != KernelName {
-		t.Errorf("kernelspecs: default %q, names %v; want %q present and default", specs.Default, keys(specs.Kernelspecs), KernelName)
+		t.Errorf("kernelspecs: default %q, names %v; want %q present and default", specs.Default, slices.Sorted(maps.Keys(specs.Kernelspecs)), KernelName)
 	}
-	resp, err := http.Get(base + "/api/kernelspecs")
+	resp, err = http.Get(base + "/api/kernelspecs")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -148,13 +171,4 @@ func TestServeSmoke(t *testing.T) {
 	if resp.StatusCode != http.StatusOK {
 		t.Errorf("notebooks/00-quickstart.ipynb through the server: status %d, want 200", resp.StatusCode)
 	}
-}
-
-func keys(m map[string]json.RawMessage) []string {
-	var ks []string
-	for k := range m {
-		ks = append(ks, k)
-	}
-	sort.Strings(ks)
-	return ks
 }

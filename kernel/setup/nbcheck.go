@@ -9,7 +9,9 @@ import (
 	"os"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"strings"
+	"unicode/utf8"
 )
 
 // FigureTag is the cell tag (cell metadata "tags") that marks a code cell
@@ -105,7 +107,7 @@ func CheckExecuted(nb Notebook) []string {
 		if hasSVG {
 			figures++
 		}
-		if hasTag(c.Metadata.Tags, FigureTag) && !hasSVG {
+		if slices.Contains(c.Metadata.Tags, FigureTag) && !hasSVG {
 			problems = append(problems, fmt.Sprintf("%s: tagged %q but has no image/svg+xml output", where, FigureTag))
 		}
 	}
@@ -151,17 +153,9 @@ func compilerMessages(outs []Output) string {
 	return strings.Join(msgs, "; ")
 }
 
-func hasTag(tags []string, t string) bool {
-	for _, x := range tags {
-		if x == t {
-			return true
-		}
-	}
-	return false
-}
-
 // firstLine returns the first line of a cell that says what it does,
-// skipping blank lines and gonb's "%%" marker, shortened to 60 bytes.
+// skipping blank lines and gonb's "%%" marker, shortened to 60 characters
+// (runes, so that no multi-byte UTF-8 character is cut).
 func firstLine(s string) string {
 	line := ""
 	for _, l := range strings.Split(s, "\n") {
@@ -171,8 +165,8 @@ func firstLine(s string) string {
 			break
 		}
 	}
-	if len(line) > 60 {
-		line = line[:57] + "..."
+	if utf8.RuneCountInString(line) > 60 {
+		line = string([]rune(line)[:57]) + "..."
 	}
 	return line
 }

@@ -2,13 +2,16 @@ package setup
 
 import (
 	"bytes"
-	"errors"
+	"encoding/json"
 	"fmt"
+	"maps"
 	"os"
 	"os/exec"
 	"path/filepath"
-	"sort"
+	"slices"
 	"strings"
+
+	"golang.org/x/mod/modfile"
 )
 
 // ModulePath is the module path of the beamnote checkout that cells import.
@@ -45,17 +48,38 @@ func (l Layout) JupyterData() string { return filepath.Join(l.State, "jupyter") 
 func KernelDir(dataDir string) string { return filepath.Join(dataDir, "kernels", KernelName) }
 
 // UserJupyterData is the per-user Jupyter data directory on this system:
-// $JUPYTER_DATA_DIR if set, else ~/.local/share/jupyter (Linux) or
-// ~/Library/Jupyter (macOS).
+// $JUPYTER_DATA_DIR if set, else what `jupyter --data-dir` reports (it
+// follows XDG_DATA_HOME and the platform's conventions), else, without a
+// working jupyter command, $XDG_DATA_HOME/jupyter or ~/.local/share/jupyter
+// (Linux) or ~/Library/Jupyter (macOS).
 func UserJupyterData() (string, error) {
+	return userJupyterData(Jupyter())
+}
+
+// userJupyterData is [UserJupyterData] asking the jupyter command jup, or
+// no command if jup is "".
+func userJupyterData(jup string) (string, error) {
 	if d := os.Getenv("JUPYTER_DATA_DIR"); d != "" {
 		return d, nil
+	}
+	if jup != "" {
+		if out, err := exec.Command(jup, "--data-dir").Output(); err == nil {
+			if d := strings.TrimSpace(string(out)); filepath.IsAbs(d) {
+				return d, nil
+			}
+		}
+	}
+	_, err := os.Stat("/System/Library")
+	macOS := err == nil
+	// The XDG Base Directory Specification ignores a relative XDG_DATA_HOME.
+	if xdg := os.Getenv("XDG_DATA_HOME"); !macOS && filepath.IsAbs(xdg) {
+		return filepath.Join(xdg, "jupyter"), nil
 	}
 	home, err := os.UserHomeDir()
 	if err != nil {
 		return "", fmt.Errorf("setup: no home directory for a per-user kernelspec: %w", err)
 	}
-	if _, err := os.Stat("/System/Library"); err == nil {
+	if macOS {
 		return filepath.Join(home, "Library", "Jupyter"), nil
 	}
 	return filepath.Join(home, ".local", "share", "jupyter"), nil
@@ -71,7 +95,7 @@ func FindLayout(dir string) (Layout, error) {
 	root := ""
 	for d := abs; ; d = filepath.Dir(d) {
 		b, err := os.ReadFile(filepath.Join(d, "go.mod"))
-		if err == nil && modulePathOf(b) == ModulePath {
+		if err == nil && modfile.ModulePath(b) == ModulePath {
 			root = d
 			break
 		}
@@ -99,29 +123,16 @@ func FindLayout(dir string) (Layout, error) {
 	return Layout{Root: root, State: filepath.Join(root, ".beamnote"), RealGo: goCmd}, nil
 }
 
-func modulePathOf(gomod []byte) string {
-	for _, line := range strings.Split(string(gomod), "\n") {
-		f := strings.Fields(line)
-		if len(f) == 2 && f[0] == "module" {
-			return strings.Trim(f[1], `"`)
-		}
-	}
-	return ""
-}
-
-// goEnv returns `go env NAME` for the given names.
+// goEnv returns the values of the named go environment variables, read
+// with one `go env -json` call.
 func (l Layout) goEnv(names ...string) (map[string]string, error) {
-	out, err := exec.Command(l.RealGo, append([]string{"env"}, names...)...).Output()
+	out, err := l.output("", l.RealGo, append([]string{"env", "-json"}, names...)...)
 	if err != nil {
-		return nil, fmt.Errorf("setup: %s env: %w", l.RealGo, err)
+		return nil, err
 	}
-	lines := strings.Split(strings.TrimRight(string(out), "\n"), "\n")
-	if len(lines) != len(names) {
-		return nil, errors.New("setup: unexpected output of go env")
-	}
-	m := make(map[string]string, len(names))
-	for i, n := range names {
-		m[n] = lines[i]
+	var m map[string]string
+	if err := json.Unmarshal([]byte(out), &m); err != nil {
+		return nil, fmt.Errorf("setup: %s env -json: %w", l.RealGo, err)
 	}
 	return m, nil
 }
@@ -136,17 +147,33 @@ func (l Layout) goEnv(names ...string) (map[string]string, error) {
 // a space: the wrapper splits the list into words.
 const CellGoFlags = "-mod=mod -ldflags=-w"
 
-// KernelEnv is the environment written into kernel.json and used by [Warm]
-// and by the latency measurement, so that all three build cells alike.
+// defaultPath is the PATH the kernel falls back to when it inherits none.
+const defaultPath = "/usr/local/sbin:/usr/local/bin:/usr/sbin:/usr/bin:/sbin:/bin"
+
+// kernelPathDirs are the directories that come first on the kernel's PATH:
+// the go wrapper, the pinned tools and the go command's directory.
+func (l Layout) kernelPathDirs() []string {
+	return []string{l.ShimDir(), l.Bin(), filepath.Dir(l.RealGo)}
+}
+
+// KernelEnv is the environment that cells build and run with, used by
+// [Warm] and by the doctor so that they build cells as the kernel does.
+// kernel.json holds every entry but PATH. PATH here is [Layout.ShimDir], the
+// pinned tools and the go command's directory, then the current PATH; the
+// kernel's launcher (see [Layout.WriteKernelspec]) puts the same directories
+// before the PATH the kernel inherits, because kernelspec env values cannot
+// refer to other variables and a PATH there would replace the user's, which
+// "!" shell commands in cells need.
 func (l Layout) KernelEnv() (map[string]string, error) {
 	ge, err := l.goEnv("GOCACHE", "GOMODCACHE", "GOPATH")
 	if err != nil {
 		return nil, err
 	}
-	path := strings.Join([]string{
-		l.ShimDir(), l.Bin(), filepath.Dir(l.RealGo),
-		"/usr/local/sbin", "/usr/local/bin", "/usr/sbin", "/usr/bin", "/sbin", "/bin",
-	}, string(os.PathListSeparator))
+	inherited := os.Getenv("PATH")
+	if inherited == "" {
+		inherited = defaultPath
+	}
+	path := strings.Join(append(l.kernelPathDirs(), inherited), string(os.PathListSeparator))
 	return map[string]string{
 		"PATH":          path,
 		"GOPROXY":       "off",
@@ -171,12 +198,7 @@ func Environ(m map[string]string) []string {
 			env = append(env, kv)
 		}
 	}
-	keys := make([]string, 0, len(m))
-	for k := range m {
-		keys = append(keys, k)
-	}
-	sort.Strings(keys)
-	for _, k := range keys {
+	for _, k := range slices.Sorted(maps.Keys(m)) {
 		env = append(env, k+"="+m[k])
 	}
 	return env

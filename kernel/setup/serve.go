@@ -1,13 +1,16 @@
 package setup
 
 import (
+	"context"
 	"crypto/rand"
 	"encoding/hex"
 	"fmt"
 	"net"
+	"net/http"
 	"os"
 	"path/filepath"
 	"strconv"
+	"time"
 )
 
 // ServeOptions configures the notebook server.
@@ -22,7 +25,10 @@ type ServeOptions struct {
 
 // ServeCommand validates opt and returns the jupyter command line and its
 // environment, and the URL to open. The server never binds a non-loopback
-// address unless AllowRemote is set, and never runs without a token.
+// address unless AllowRemote is set, and never runs without a token. The
+// token is in the environment (JUPYTER_TOKEN, read by Notebook 6.4 and 7),
+// never on the command line, which every local user can read in the process
+// list.
 func (l Layout) ServeCommand(opt ServeOptions) (argv []string, env map[string]string, url string, err error) {
 	if opt.IP == "" {
 		opt.IP = "127.0.0.1"
@@ -61,7 +67,6 @@ func (l Layout) ServeCommand(opt ServeOptions) (argv []string, env map[string]st
 		"--port=" + strconv.Itoa(opt.Port),
 		"--port-retries=0",
 		"--notebook-dir=" + opt.Dir,
-		"--NotebookApp.token=" + opt.Token,
 		"--MultiKernelManager.default_kernel_name=" + KernelName,
 	}
 	if os.Geteuid() == 0 {
@@ -75,5 +80,30 @@ func (l Layout) ServeCommand(opt ServeOptions) (argv []string, env map[string]st
 		host = "[" + host + "]"
 	}
 	url = fmt.Sprintf("http://%s:%d/tree?token=%s", host, opt.Port, opt.Token)
-	return argv, l.JupyterEnv(opt.User), url, nil
+	env = l.JupyterEnv(opt.User)
+	env["JUPYTER_TOKEN"] = opt.Token
+	return argv, env, url, nil
+}
+
+// WaitServing polls url until the server there answers HTTP (with any
+// status) and returns nil, or returns an error with the last failure once
+// ctx is done.
+func WaitServing(ctx context.Context, url string) error {
+	client := &http.Client{Timeout: 2 * time.Second}
+	for {
+		req, err := http.NewRequestWithContext(ctx, http.MethodGet, url, nil)
+		if err != nil {
+			return fmt.Errorf("setup: %w", err)
+		}
+		resp, err := client.Do(req)
+		if err == nil {
+			resp.Body.Close()
+			return nil
+		}
+		select {
+		case <-ctx.Done():
+			return fmt.Errorf("setup: the notebook server did not answer: %w", err)
+		case <-time.After(200 * time.Millisecond):
+		}
+	}
 }

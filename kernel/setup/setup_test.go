@@ -2,13 +2,19 @@ package setup
 
 import (
 	"bytes"
+	"context"
 	"encoding/json"
 	"image/png"
+	"net"
+	"net/http"
+	"net/http/httptest"
 	"os"
 	"os/exec"
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
+	"unicode/utf8"
 )
 
 // These tests check the kernel plumbing against the formats it must speak:
@@ -85,7 +91,7 @@ func TestServeCommandRefusesRemoteAndAlwaysHasToken(t *testing.T) {
 		{ServeOptions{IP: "localhost"}, false}, // not an IP address
 		{ServeOptions{Port: 70000}, false},
 	} {
-		argv, _, url, err := l.ServeCommand(test.opt)
+		argv, env, url, err := l.ServeCommand(test.opt)
 		if (err == nil) != test.wantOK {
 			t.Errorf("ServeCommand(%+v) error = %v, want ok %v", test.opt, err, test.wantOK)
 			continue
@@ -93,14 +99,12 @@ func TestServeCommandRefusesRemoteAndAlwaysHasToken(t *testing.T) {
 		if err != nil {
 			continue
 		}
-		tok := ""
-		for _, a := range argv {
-			if v, ok := strings.CutPrefix(a, "--NotebookApp.token="); ok {
-				tok = v
-			}
-		}
+		tok := env["JUPYTER_TOKEN"]
 		if len(tok) != 48 || !strings.Contains(url, "token="+tok) {
-			t.Errorf("ServeCommand(%+v): token %q, url %q; want a 48-hex-digit token in the URL", test.opt, tok, url)
+			t.Errorf("ServeCommand(%+v): JUPYTER_TOKEN %q, url %q; want a 48-hex-digit token in the URL", test.opt, tok, url)
+		}
+		if a := strings.Join(argv, " "); tok != "" && strings.Contains(a, tok) {
+			t.Errorf("ServeCommand(%+v): the token is on the command line %q", test.opt, a)
 		}
 	}
 }
@@ -311,11 +315,14 @@ func TestCheckKernelspecStale(t *testing.T) {
 		if err := os.WriteFile(filepath.Join(l.Bin(), "gonb"), nil, 0o755); err != nil {
 			t.Fatal(err)
 		}
+		if err := os.WriteFile(l.launcherPath(), l.launcherScript(), 0o755); err != nil {
+			t.Fatal(err)
+		}
 	}
 	write := func(l Layout) string {
 		spec := kernelspec{
-			Argv: []string{filepath.Join(l.Bin(), "gonb"), "--kernel", "{connection_file}"},
-			Env:  map[string]string{"PATH": l.ShimDir() + string(os.PathListSeparator) + "/usr/bin", "BEAMNOTE_ROOT": l.Root},
+			Argv: []string{l.launcherPath(), "--kernel", "{connection_file}"},
+			Env:  map[string]string{"BEAMNOTE_ROOT": l.Root},
 			Metadata: map[string]any{
 				"beamnote": map[string]string{"root": l.Root},
 			},
@@ -336,6 +343,160 @@ func TestCheckKernelspecStale(t *testing.T) {
 	err := mine.checkKernelspec(write(other))
 	if err == nil || !strings.Contains(err.Error(), other.Root) {
 		t.Errorf("checkKernelspec(other checkout's kernelspec) = %v, want an error naming %s", err, other.Root)
+	}
+	// A kernelspec of an older beamnote-kernel: gonb directly, PATH in env.
+	old := write(mine)
+	b, _ := os.ReadFile(old)
+	b = bytes.Replace(b, []byte(mine.launcherPath()), []byte(filepath.Join(mine.Bin(), "gonb")), 1)
+	if err := os.WriteFile(old, b, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := mine.checkKernelspec(old); err == nil {
+		t.Errorf("checkKernelspec(kernelspec that starts gonb directly) = nil, want an error")
+	}
+	// A launcher written for another go command.
+	if err := os.WriteFile(mine.launcherPath(), Layout{Root: mine.Root, State: mine.State, RealGo: "/opt/go/bin/go"}.launcherScript(), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	if err := mine.checkKernelspec(write(mine)); err == nil {
+		t.Errorf("checkKernelspec with a launcher for another go command = nil, want an error")
+	}
+}
+
+// TestKernelspecKeepsUserPath writes the kernelspec with a stand-in for gonb
+// that prints its PATH, and starts it as Jupyter does (kernel.json's argv
+// with its env over the server's environment): the go wrapper, the pinned
+// tools and the go command's directory must come first, and the PATH the
+// kernel inherited must follow, for "!" shell commands in cells.
+func TestKernelspecKeepsUserPath(t *testing.T) {
+	l, err := FindLayout(".")
+	if err != nil {
+		t.Fatal(err)
+	}
+	l.State = t.TempDir()
+	record := filepath.Join(l.State, "path")
+	if err := os.MkdirAll(l.Bin(), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	fake := "#!/bin/sh\nprintf %s \"$PATH\" > " + shellQuote(record) + "\n"
+	if err := os.WriteFile(filepath.Join(l.Bin(), "gonb"), []byte(fake), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	data := filepath.Join(l.State, "jupyter")
+	kdir, err := l.WriteKernelspec(data)
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := os.ReadFile(filepath.Join(kdir, "kernel.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var spec kernelspec
+	if err := json.Unmarshal(b, &spec); err != nil {
+		t.Fatal(err)
+	}
+	if err := l.checkKernelspec(filepath.Join(kdir, "kernel.json")); err != nil {
+		t.Errorf("checkKernelspec(written kernelspec) = %v, want nil", err)
+	}
+	userDir := filepath.Join(l.State, "user tools")
+	t.Setenv("PATH", userDir+string(os.PathListSeparator)+"/usr/bin:/bin")
+	cmd := exec.Command(spec.Argv[0], spec.Argv[1:]...)
+	cmd.Env = Environ(spec.Env)
+	if out, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("%s: %v\n%s", spec.Argv[0], err, out)
+	}
+	got, err := os.ReadFile(record)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := strings.Join([]string{l.ShimDir(), l.Bin(), filepath.Dir(l.RealGo), userDir, "/usr/bin", "/bin"}, string(os.PathListSeparator))
+	if string(got) != want {
+		t.Errorf("kernel PATH = %q, want %q", got, want)
+	}
+}
+
+func TestFirstLineKeepsRunes(t *testing.T) {
+	long := strings.Repeat("λ", 70) // 2 bytes each
+	for _, test := range []struct{ in, want string }{
+		{"\n%%\n  w0 := 1.2  \nmore", "w0 := 1.2"},
+		{strings.Repeat("a", 60), strings.Repeat("a", 60)},
+		{strings.Repeat("a", 61), strings.Repeat("a", 57) + "..."},
+		{long, strings.Repeat("λ", 57) + "..."},
+		{strings.Repeat("a", 28) + long, strings.Repeat("a", 28) + strings.Repeat("λ", 29) + "..."},
+		{strings.Repeat("µ", 60), strings.Repeat("µ", 60)},
+	} {
+		got := firstLine(test.in)
+		if got != test.want || !utf8.ValidString(got) {
+			t.Errorf("firstLine(%q) = %q, want %q", test.in, got, test.want)
+		}
+	}
+}
+
+func TestUserJupyterDataFollowsXDG(t *testing.T) {
+	if _, err := os.Stat("/System/Library"); err == nil {
+		t.Skip("macOS keeps Jupyter data in ~/Library/Jupyter")
+	}
+	xdg := t.TempDir()
+	t.Setenv("JUPYTER_DATA_DIR", "")
+	t.Setenv("XDG_DATA_HOME", xdg)
+	want := filepath.Join(xdg, "jupyter")
+	// With the jupyter command (asked with `jupyter --data-dir`) and
+	// without one (the XDG rule applied here).
+	for _, jup := range []string{Jupyter(), ""} {
+		if got, err := userJupyterData(jup); err != nil || got != want {
+			t.Errorf("userJupyterData(%q) with XDG_DATA_HOME=%s = %q, %v; want %q", jup, xdg, got, err, want)
+		}
+	}
+	t.Setenv("JUPYTER_DATA_DIR", "/elsewhere/jupyter")
+	if got, err := UserJupyterData(); err != nil || got != "/elsewhere/jupyter" {
+		t.Errorf("UserJupyterData() with JUPYTER_DATA_DIR=/elsewhere/jupyter = %q, %v", got, err)
+	}
+}
+
+func TestCheckGoVersion(t *testing.T) {
+	l := Layout{RealGo: "/usr/local/go/bin/go"}
+	for _, test := range []struct {
+		goVersion string
+		wantOK    bool
+	}{
+		{"go1.26.8", true},
+		{"go" + MinGo, true},
+		{"go1.27rc1", true},
+		{"go1.100.0", true},
+		{"devel go1.27-0123abc Mon Jan 2 15:04:05 2027 +0000", true},
+		{"go1.26.8 X:boringcrypto", true},
+		{"go1.25.9", false},
+		{"go1.9", false},
+		{"", false},
+		{"unknown", false},
+	} {
+		if err := l.checkGoVersion(test.goVersion); (err == nil) != test.wantOK {
+			t.Errorf("checkGoVersion(%q) = %v, want ok %v", test.goVersion, err, test.wantOK)
+		}
+	}
+}
+
+func TestWaitServing(t *testing.T) {
+	srv := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
+		http.Error(w, "forbidden", http.StatusForbidden) // any answer will do
+	}))
+	defer srv.Close()
+	ctx, cancel := context.WithTimeout(context.Background(), 10*time.Second)
+	defer cancel()
+	if err := WaitServing(ctx, srv.URL+"/tree?token=x"); err != nil {
+		t.Errorf("WaitServing(running server) = %v, want nil", err)
+	}
+
+	ln, err := net.Listen("tcp", "127.0.0.1:0")
+	if err != nil {
+		t.Fatal(err)
+	}
+	url := "http://" + ln.Addr().String() + "/tree"
+	ln.Close()
+	ctx, cancel = context.WithTimeout(context.Background(), 500*time.Millisecond)
+	defer cancel()
+	if err := WaitServing(ctx, url); err == nil {
+		t.Errorf("WaitServing(nothing listening) = nil, want an error")
 	}
 }
 

@@ -75,6 +75,31 @@ func shimVar(script []byte, name string) string {
 	return ""
 }
 
+const launcherMarker = "# beamnote kernel launcher"
+
+// launcherScript returns the POSIX shell script that kernel.json runs to
+// start gonb: it puts [Layout.kernelPathDirs] before the PATH that the kernel
+// inherits from the notebook server, so that "!" shell commands in cells keep
+// the user's PATH. (Kernelspec env values are taken literally, and a PATH
+// there would replace the user's.)
+func (l Layout) launcherScript() []byte {
+	dirs := make([]string, 0, 3)
+	for _, d := range l.kernelPathDirs() {
+		dirs = append(dirs, shellQuote(d))
+	}
+	return fmt.Appendf(nil, `#!/bin/sh
+%s: written by "beamnote-kernel install"; do not edit.
+# Starts gonb with the go wrapper, the pinned tools and the go command first
+# on the PATH the kernel inherits, which "!" commands in cells keep.
+PATH=%s:${PATH:-%s}
+export PATH
+exec %s "$@"
+`, launcherMarker, strings.Join(dirs, ":"), defaultPath, shellQuote(filepath.Join(l.Bin(), "gonb")))
+}
+
+// launcherPath is the kernel launcher's path, argv[0] of kernel.json.
+func (l Layout) launcherPath() string { return filepath.Join(l.Bin(), "gonb-kernel") }
+
 // shimPath is the wrapper's path.
 func (l Layout) shimPath() string { return filepath.Join(l.ShimDir(), "go") }
 

@@ -6,7 +6,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
-	"sort"
+	"slices"
 	"strings"
 )
 
@@ -42,7 +42,7 @@ func ImportablePackages(l Layout) ([]string, error) {
 			pkgs = append(pkgs, p)
 		}
 	}
-	sort.Strings(pkgs)
+	slices.Sort(pkgs)
 	return pkgs, nil
 }
 

@@ -16,13 +16,18 @@
 package main
 
 import (
+	"context"
+	"errors"
 	"flag"
 	"fmt"
+	"io"
 	"os"
 	"os/exec"
+	"os/signal"
 	"path/filepath"
 	"strconv"
 	"syscall"
+	"time"
 
 	"github.com/beamnote/beamnote/kernel/setup"
 )
@@ -74,9 +79,9 @@ func main() {
 		if err := l.SignNotebooks(*user); err != nil {
 			fmt.Fprintln(os.Stderr, "beamnote: warning:", err)
 		}
-		fmt.Printf("\nbeamnote: serving %s\nbeamnote: open %s\n\n", filepath.Join(l.Root, "notebooks"), url)
-		if err := syscall.Exec(argv[0], argv, setup.Environ(env)); err != nil {
-			fail(fmt.Errorf("starting %s: %w", argv[0], err))
+		fmt.Printf("\nbeamnote: serving %s\n", filepath.Join(l.Root, "notebooks"))
+		if err := serve(argv, env, url, os.Stdout); err != nil {
+			fail(err)
 		}
 	case "test":
 		out := fs.String("out", filepath.Join(l.Root, "build", "notebooks"), "directory for executed notebooks and HTML exports")
@@ -87,6 +92,51 @@ func main() {
 		fmt.Fprintf(os.Stderr, "beamnote: %d notebook(s) executed and checked; results in %s\n", len(fs.Args()), *out)
 	default:
 		usage()
+	}
+}
+
+// serveTimeout is how long serve waits for the notebook server to answer
+// before it prints the URL with a warning.
+const serveTimeout = 60 * time.Second
+
+// serve runs the notebook server argv with environment env until it exits,
+// and writes the URL to out once the server answers HTTP there. It forwards
+// SIGTERM and SIGHUP to the server; SIGINT from the terminal reaches the
+// server by itself (same process group), which then asks to confirm.
+func serve(argv []string, env map[string]string, url string, out io.Writer) error {
+	sigs := make(chan os.Signal, 1)
+	signal.Notify(sigs, os.Interrupt, syscall.SIGTERM, syscall.SIGHUP)
+	defer signal.Stop(sigs)
+	cmd := exec.Command(argv[0], argv[1:]...)
+	cmd.Env = setup.Environ(env)
+	cmd.Stdin, cmd.Stdout, cmd.Stderr = os.Stdin, os.Stdout, os.Stderr
+	if err := cmd.Start(); err != nil {
+		return fmt.Errorf("starting %s: %w", argv[0], err)
+	}
+	exited := make(chan error, 1)
+	go func() { exited <- cmd.Wait() }()
+	ctx, cancel := context.WithTimeout(context.Background(), serveTimeout)
+	defer cancel()
+	ready := make(chan error, 1)
+	go func() { ready <- setup.WaitServing(ctx, url) }()
+	for {
+		select {
+		case err := <-ready:
+			ready = nil
+			if err != nil {
+				fmt.Fprintf(out, "beamnote: warning: no answer within %v, the server may still be starting: %v\n", serveTimeout, err)
+			}
+			fmt.Fprintf(out, "\nbeamnote: open %s\n\n", url)
+		case sig := <-sigs:
+			if sig != os.Interrupt {
+				cmd.Process.Signal(sig)
+			}
+		case err := <-exited:
+			if err != nil {
+				return fmt.Errorf("%s: %w", argv[0], err)
+			}
+			return nil
+		}
 	}
 }
 
@@ -115,8 +165,22 @@ func usage() {
 
 func fail(err error) {
 	fmt.Fprintln(os.Stderr, "beamnote-kernel:", err)
-	if ee, ok := err.(*exec.ExitError); ok {
-		os.Exit(ee.ExitCode())
+	os.Exit(exitCode(err))
+}
+
+// exitCode is the status to exit with after err: the exit code of the
+// command whose *exec.ExitError err wraps (128+n if a signal n killed it, as
+// shells report it), else 1.
+func exitCode(err error) int {
+	var ee *exec.ExitError
+	if !errors.As(err, &ee) {
+		return 1
 	}
-	os.Exit(1)
+	if ws, ok := ee.Sys().(syscall.WaitStatus); ok && ws.Signaled() {
+		return 128 + int(ws.Signal())
+	}
+	if c := ee.ExitCode(); c > 0 {
+		return c
+	}
+	return 1
 }

@@ -1,10 +1,10 @@
 // Package pyref runs the NumPy/SciPy reference scripts of
 // testdata/crosscheck for the cross-check tests of the opticslib packages.
 //
-// The scripts run with the system interpreter /usr/bin/python3, which sees
-// Debian's python3-numpy and python3-scipy (the python3 first on PATH may
-// not). Tests skip, saying why, where the interpreter or the modules are
-// missing; CI installs them.
+// The scripts run with $BEAMNOTE_PYTHON if set, else the system interpreter
+// /usr/bin/python3, which sees Debian's python3-numpy and python3-scipy (the
+// python3 first on PATH may not). Tests skip, saying why, where the
+// interpreter or the modules are missing; CI installs them.
 package pyref
 
 import (
@@ -16,8 +16,15 @@ import (
 	"testing"
 )
 
-// Python is the system interpreter that sees Debian's numpy and scipy.
-const Python = "/usr/bin/python3"
+// Python returns the interpreter that runs the reference scripts:
+// $BEAMNOTE_PYTHON if set, else /usr/bin/python3, the system interpreter
+// that sees Debian's numpy and scipy.
+func Python() string {
+	if p := os.Getenv("BEAMNOTE_PYTHON"); p != "" {
+		return p
+	}
+	return "/usr/bin/python3"
+}
 
 // Run writes in as JSON to a temporary file, runs the reference script
 // testdata/crosscheck/<script> on it and decodes the script's JSON output
@@ -26,11 +33,12 @@ const Python = "/usr/bin/python3"
 // package directory two levels below the checkout (opticslib/<pkg>).
 func Run(t testing.TB, script string, in, out any) {
 	t.Helper()
-	if _, err := os.Stat(Python); err != nil {
-		t.Skipf("cross-check skipped: %s not found (install python3-numpy and python3-scipy): %v", Python, err)
+	python, err := exec.LookPath(Python())
+	if err != nil {
+		t.Skipf("cross-check skipped: %s not found (install python3-numpy and python3-scipy, or set BEAMNOTE_PYTHON): %v", Python(), err)
 	}
-	if msg, err := exec.Command(Python, "-c", "import numpy, scipy").CombinedOutput(); err != nil {
-		t.Skipf("cross-check skipped: %s cannot import numpy and scipy (install python3-numpy python3-scipy): %v\n%s", Python, err, msg)
+	if msg, err := exec.Command(python, "-c", "import numpy, scipy").CombinedOutput(); err != nil {
+		t.Skipf("cross-check skipped: %s cannot import numpy and scipy (install python3-numpy python3-scipy): %v\n%s", python, err, msg)
 	}
 	dir := t.TempDir()
 	inPath, outPath := filepath.Join(dir, "in.json"), filepath.Join(dir, "out.json")
@@ -49,10 +57,10 @@ func Run(t testing.TB, script string, in, out any) {
 		t.Fatalf("reference script: %v", err)
 	}
 	var stderr bytes.Buffer
-	cmd := exec.Command(Python, path, inPath, outPath)
+	cmd := exec.Command(python, path, inPath, outPath)
 	cmd.Stderr = &stderr
 	if err := cmd.Run(); err != nil {
-		t.Fatalf("%s %s error: %v\n%s", Python, path, err, stderr.Bytes())
+		t.Fatalf("%s %s error: %v\n%s", python, path, err, stderr.Bytes())
 	}
 	data, err = os.ReadFile(outPath)
 	if err != nil {
