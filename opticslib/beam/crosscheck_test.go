@@ -27,9 +27,9 @@ func TestCrossCheckCircularTransmission(t *testing.T) {
 	// Independent reference: scipy.integrate.dblquad (QUADPACK) of the
 	// elliptical TEM₀₀ irradiance over the disc, SciPy 1.10 (Debian 12),
 	// testdata/crosscheck/beam_transmission.py; for round beams also the
-	// closed form 1 − exp(−2a²/w²) (Siegman, Lasers, §17.1) evaluated with
-	// numpy's expm1. The Go code uses a different method (closed radial
-	// integral, trapezoidal angular one).
+	// closed form 1 − exp(−2a²/w²) (Siegman, Lasers, §17.1 [from memory])
+	// evaluated with numpy's expm1. The Go code uses a different method
+	// (closed radial integral, trapezoidal angular one).
 	//
 	// Tolerance: abs 1e-12. The script asks dblquad for epsabs = epsrel =
 	// 1e-13 at each level on a quadrant (×4), and T ≤ 1; the Go side stops
@@ -187,8 +187,8 @@ type xcBeamResult struct {
 func TestCrossCheckABCD(t *testing.T) {
 	// Independent reference: the ABCD law in reduced form, q̂ = q/n,
 	// q̂₂ = (Â q̂₁ + B̂)/(Ĉ q̂₁ + D̂) with 1/q̂ = n/R − iλ0/(πw²) (Kogelnik & Li,
-	// Appl. Opt. 5, 1550 (1966); Siegman, Lasers, ch. 20), the reduced
-	// element matrices of Gerrard & Burch (1975) composed with numpy,
+	// Appl. Opt. 5, 1550 (1966); Siegman, Lasers, ch. 20 [from memory]), the
+	// reduced element matrices of Gerrard & Burch (1975) composed with numpy,
 	// testdata/crosscheck/beam_abcd.py. Package beam uses the un-reduced
 	// matrices on q itself, so agreement checks its documented index
 	// handling too.
@@ -268,9 +268,9 @@ func TestCrossCheckABCD(t *testing.T) {
 
 func TestCrossCheckGouy(t *testing.T) {
 	// Independent reference: the on-axis amplitude after a system is
-	// ∝ 1/(A + B/q₁) (Siegman, Lasers, ch. 20), so the accumulated Gouy
-	// phase is −arg(A(z) + B(z)/q₁) for the cumulative matrix M(z),
-	// sampled densely along the path and unwrapped with numpy.unwrap
+	// ∝ 1/(A + B/q₁) (Siegman, Lasers, ch. 20 [from memory]), so the
+	// accumulated Gouy phase is −arg(A(z) + B(z)/q₁) for the cumulative
+	// matrix M(z), sampled densely along the path and unwrapped with numpy.unwrap
 	// (testdata/crosscheck/beam_abcd.py). beam.Sample instead sums
 	// per-element increments; both must give the same unreduced phase,
 	// beyond π through several foci.

@@ -8,11 +8,11 @@ import (
 	"github.com/beamnote/beamnote/opticslib/units"
 )
 
-// ErrNoStop is returned by [System.Apertures] when no element has a clear
+// ErrNoStop is returned by [System.Stops] when no element has a clear
 // aperture that limits the axial pencil.
 var ErrNoStop = errors.New("paraxial: no clear aperture limits the axial pencil; set one with Builder.Aperture")
 
-// ErrStopImaged is returned by [System.Apertures] when the chief ray is
+// ErrStopImaged is returned by [System.Stops] when the chief ray is
 // undefined: the object (finite) is imaged onto the stop, or (object at
 // infinity) the stop is at a focal plane of the optics before it.
 var ErrStopImaged = errors.New("paraxial: chief ray undefined: the object is conjugate to the aperture stop")
@@ -60,8 +60,9 @@ type Pupil struct {
 	AtInfinity bool
 }
 
-// Apertures is the result of a first-order aperture analysis of a system
-// for one object, in one plane.
+// Stops is the result of a first-order aperture analysis of a system for
+// one object, in one plane: aperture stop, pupils, marginal and chief
+// rays, numerical apertures and field of view ([System.Stops]).
 //
 // Rays are given at the start plane: the object plane for a finite
 // object, the input plane z = 0 for an object at infinity. The marginal
@@ -91,17 +92,21 @@ type Pupil struct {
 // the deciding entry (A, Q.D or B) is zero to within 1e-12 of the size of
 // the terms that cancel in it, far above rounding; it is never reported
 // at a huge finite distance.
-type Apertures struct {
+type Stops struct {
 	// Object and Plane are the inputs of the analysis.
 	Object Object
 	Plane  Plane
 	// Start is the axial position at which the rays below are given.
 	Start units.Length
-	// Stop is the element index of the aperture stop and StopZ its
-	// position (a space's entrance or exit when the stop is a tube).
-	Stop  int
-	StopZ units.Length
-	// StopRadius is the clear-aperture radius of the stop in metres.
+	// Stop is the element index of the aperture stop, StopName how
+	// messages name it ([Element.Name]) and StopZ its position (a space's
+	// entrance or exit when the stop is a tube).
+	Stop     int
+	StopName string
+	StopZ    units.Length
+	// StopRadius is the half-opening of the stop in this plane, in metres:
+	// the distance from the axis to the nearer edge, projected onto the
+	// beam's transverse plane for a tilted part.
 	StopRadius units.Length
 	// Entrance and Exit are the pupils.
 	Entrance, Exit Pupil
@@ -120,7 +125,9 @@ type Apertures struct {
 	FNumber float64
 	// FieldStop is the element index of the field stop, or −1 if no other
 	// clear aperture limits the field; the fields below are then zero.
-	FieldStop int
+	// FieldStopName names it ([Element.Name]).
+	FieldStop     int
+	FieldStopName string
 	// HalfField is the field at which the chief ray reaches the edge of
 	// the field stop (50 % vignetting, the usual field of view); the full
 	// field of view is twice it.
@@ -135,7 +142,7 @@ type Apertures struct {
 // Ray returns the ray at Start from field point f through relative pupil
 // coordinate rho (−1 and 1 are the pupil edges, 0 the chief ray):
 // chief(f) + rho·Marginal.
-func (a Apertures) Ray(f Field, rho float64) Ray {
+func (a Stops) Ray(f Field, rho float64) Ray {
 	k := float64(f.Height)
 	if a.Object.Infinite {
 		k = float64(f.Angle)
@@ -147,10 +154,13 @@ func (a Apertures) Ray(f Field, rho float64) Ray {
 }
 
 // Chief returns the chief ray at Start for field point f, Ray(f, 0).
-func (a Apertures) Chief(f Field) Ray { return a.Ray(f, 0) }
+func (a Stops) Chief(f Field) Ray { return a.Ray(f, 0) }
 
 // start validates obj and returns the start plane of its rays.
-func (s System) start(obj Object) (units.Length, error) {
+func (s System) start(obj Object, p Plane) (units.Length, error) {
+	if err := s.check(p); err != nil {
+		return 0, err
+	}
 	if len(s.elems) == 0 {
 		return 0, ErrEmpty
 	}
@@ -165,8 +175,9 @@ func (s System) start(obj Object) (units.Length, error) {
 			continue
 		}
 		if obj.Z > e.Z {
-			return 0, &ElementError{Index: i, Kind: e.Kind, Op: "Apertures", Param: "object position z", Value: float64(obj.Z), Length: true,
-				Reason: "must be at or before the first surface at z = " + e.Z.String()}
+			err := elementError(i, e)
+			err.Param, err.Value, err.Reason = "object position z", obj.Z, "Stops: must be at or before this first surface at z = "+e.Z.String()
+			return 0, err
 		}
 		break
 	}
@@ -177,26 +188,18 @@ func (s System) start(obj Object) (units.Length, error) {
 // surface) through elements 0..upto−1, and the product of the entrywise
 // magnitudes (the scale for nearZero).
 func (s System) prefix(z0 units.Length, upto int, p Plane) (m, bound Matrix) {
-	m = Identity()
-	pos := z0
-	if pos < 0 {
-		m, pos = Space(-pos), 0
-	}
-	bound = m.abs()
-	for _, e := range s.elems[:upto] {
-		var em Matrix
-		if e.Kind == KindSpace {
-			end := e.Z + e.Length
-			if end <= pos {
-				continue
-			}
-			em = Space(end - max(pos, e.Z))
-			pos = end
-		} else {
-			em = e.matrix(p)
+	m, bound = Identity(), Identity()
+	s.walk(z0, s.length, func(pc *piece) bool {
+		if pc.i >= upto {
+			return false
+		}
+		em := Space(pc.to - pc.from)
+		if pc.e != nil && pc.e.Kind != KindSpace {
+			em = pc.e.matrix(p)
 		}
 		m, bound = m.Then(em), bound.Then(em.abs())
-	}
+		return true
+	})
 	return m, bound
 }
 
@@ -211,60 +214,61 @@ const tieTolerance = 1e-9
 type stopCandidate struct {
 	elem  int
 	z     units.Length
-	a     units.Length
-	after bool // the plane is after the element (space exit, or surface)
+	a     units.Length // half-opening in the plane analysed
+	after bool         // the plane is after the element (space exit, or surface)
 }
 
-// apertureHeights calls f for every aperture met by ray r from z0, with
-// the ray height y there and the bound yb, the same height traced with the
-// entrywise magnitudes of the matrices (the scale for nearZero).
+// apertureHeights calls f for every aperture met by ray r from z0 in
+// plane p, with the ray height y there and the bound yb, the same height
+// traced with the entrywise magnitudes of the matrices (the scale for
+// nearZero). A space's aperture (a tube) is visited at both ends: ray
+// heights are linear along a gap, so the ends bound them.
 func (s System) apertureHeights(r Ray, z0 units.Length, p Plane, f func(c stopCandidate, y, yb float64)) {
 	rb := Ray{Y: units.Length(math.Abs(float64(r.Y))), Theta: units.Angle(math.Abs(float64(r.Theta)))}
 	apply := func(m Matrix) { r, rb = m.Apply(r), m.abs().Apply(rb) }
-	pos := z0
-	if pos < 0 {
-		apply(Space(-pos))
-		pos = 0
-	}
-	for i, e := range s.elems {
-		if e.Kind == KindSpace {
-			end := e.Z + e.Length
-			if end <= pos && e.Length > 0 {
-				continue
-			}
-			if e.Aperture > 0 {
-				f(stopCandidate{elem: i, z: max(pos, e.Z), a: e.Aperture}, float64(r.Y), float64(rb.Y))
-			}
-			apply(Space(end - max(pos, e.Z)))
-			pos = end
-			if e.Aperture > 0 {
-				f(stopCandidate{elem: i, z: end, a: e.Aperture, after: true}, float64(r.Y), float64(rb.Y))
-			}
-			continue
+	s.walk(z0, s.length, func(pc *piece) bool {
+		if pc.e == nil {
+			apply(Space(pc.to - pc.from))
+			return true
 		}
-		apply(e.matrix(p))
-		if e.Aperture > 0 {
-			f(stopCandidate{elem: i, z: e.Z, a: e.Aperture, after: true}, float64(r.Y), float64(rb.Y))
+		h, limited := pc.e.Aperture.halfOpening(p, pc.e.Tilt)
+		if pc.e.Kind == KindSpace {
+			if limited {
+				f(stopCandidate{elem: pc.i, z: pc.from, a: units.Length(h)}, float64(r.Y), float64(rb.Y))
+			}
+			apply(Space(pc.to - pc.from))
+			if limited {
+				f(stopCandidate{elem: pc.i, z: pc.to, a: units.Length(h), after: true}, float64(r.Y), float64(rb.Y))
+			}
+			return true
 		}
-	}
+		apply(pc.e.matrix(p))
+		if limited {
+			f(stopCandidate{elem: pc.i, z: pc.e.Z, a: units.Length(h), after: true}, float64(r.Y), float64(rb.Y))
+		}
+		return true
+	})
 }
 
-// Apertures finds the aperture stop, pupils, marginal and chief rays,
+// Stops finds the aperture stop, pupils, marginal and chief rays,
 // numerical apertures, f-numbers and field of view of s for object obj in
-// plane p (see [Apertures]). Clear apertures are set with
-// [Builder.Aperture]; an aperture on a space is checked at both ends.
+// plane p (see [Stops]). Clear apertures are set with [Builder.Aperture]
+// and [Builder.Diaphragm]; an aperture on a space (a tube) is checked at
+// both ends, and a part met at an angle θ limits the tangential plane to
+// its clear radius × cos θ.
 //
-// It returns [ErrEmpty] for an empty system, an [*ElementError] for an
-// object after the first surface, [ErrNonFinite] for a non-finite object
+// It returns [ErrNotBuilt] for the zero System, [ErrPlane] for an unknown
+// plane, [ErrEmpty] for an empty system, an [*ElementError] for an object
+// after the first surface, [ErrNonFinite] for a non-finite object
 // position, [ErrNoStop] if no aperture limits the axial pencil,
 // [ErrStopImaged] if the chief ray is undefined, and [ErrOverflow] if a
 // result is not finite.
-func (s System) Apertures(obj Object, p Plane) (Apertures, error) {
-	z0, err := s.start(obj)
+func (s System) Stops(obj Object, p Plane) (Stops, error) {
+	z0, err := s.start(obj, p)
 	if err != nil {
-		return Apertures{}, err
+		return Stops{}, err
 	}
-	a := Apertures{Object: obj, Plane: p, Start: z0, Stop: -1, FieldStop: -1}
+	a := Stops{Object: obj, Plane: p, Start: z0, Stop: -1, FieldStop: -1}
 	trial := Ray{Theta: 1}
 	if obj.Infinite {
 		trial = Ray{Y: 1}
@@ -280,9 +284,10 @@ func (s System) Apertures(obj Object, p Plane) (Apertures, error) {
 		}
 	})
 	if math.IsInf(best, 1) {
-		return Apertures{}, ErrNoStop
+		return Stops{}, ErrNoStop
 	}
 	a.Stop, a.StopZ, a.StopRadius = stop.elem, stop.z, stop.a
+	a.StopName = s.elems[stop.elem].Name()
 	a.Marginal = Ray{Y: trial.Y * units.Length(best), Theta: trial.Theta * units.Angle(best)}
 
 	// Matrices from the start plane to the stop plane, and from the stop
@@ -321,12 +326,12 @@ func (s System) Apertures(obj Object, p Plane) (Apertures, error) {
 	// A y + B θ = 0 at the stop.
 	if obj.Infinite {
 		if a.Entrance.AtInfinity {
-			return Apertures{}, ErrStopImaged
+			return Stops{}, ErrStopImaged
 		}
 		a.chief = Ray{Y: units.Length(-pm.B / pm.A), Theta: 1}
 	} else {
 		if nearZero(pm.B, pb.B) {
-			return Apertures{}, ErrStopImaged
+			return Stops{}, ErrStopImaged
 		}
 		a.chief = Ray{Y: 1, Theta: units.Angle(-pm.A / pm.B)}
 	}
@@ -370,6 +375,7 @@ func (s System) Apertures(obj Object, p Plane) (Apertures, error) {
 		unvig = math.Min(unvig, math.Max(0, float64(c.a)-ym)/yc)
 	})
 	if a.FieldStop >= 0 {
+		a.FieldStopName = s.elems[a.FieldStop].Name()
 		if obj.Infinite {
 			a.HalfField = Field{Angle: units.Angle(half)}
 			a.UnvignettedField = Field{Angle: units.Angle(unvig)}
@@ -381,7 +387,7 @@ func (s System) Apertures(obj Object, p Plane) (Apertures, error) {
 	for _, v := range []float64{float64(a.Entrance.Z), float64(a.Entrance.Radius), float64(a.Exit.Z), float64(a.Exit.Radius),
 		float64(a.chief.Y), float64(a.chief.Theta), float64(a.Marginal.Y), float64(a.Marginal.Theta), a.ImageNA} {
 		if !finite(v) {
-			return Apertures{}, ErrOverflow
+			return Stops{}, ErrOverflow
 		}
 	}
 	return a, nil
@@ -404,9 +410,19 @@ type Step struct {
 	Blocked bool
 }
 
-// blocked reports |y| > a (with a relative margin), a > 0.
-func blocked(y units.Length, a units.Length) bool {
-	return a > 0 && math.Abs(float64(y)) > float64(a)*(1+tieTolerance)
+// blocked reports that height y lies outside the opening of e in plane p
+// (with a relative margin of [tieTolerance] of the opening's size).
+func blocked(y units.Length, e *Element, p Plane) bool {
+	if !e.Aperture.Limited() {
+		return false
+	}
+	lo, hi, ok := e.Aperture.limits(p, e.Tilt)
+	if !ok {
+		return false
+	}
+	m := float64(e.Aperture.Radius) * tieTolerance
+	v := float64(y)
+	return v < lo-m || v > hi+m
 }
 
 // Trace traces ray r, given at axial position from, element by element to
@@ -417,10 +433,14 @@ func blocked(y units.Length, a units.Length) bool {
 // (Blocked) but traced on, so that a caller can draw or count them.
 // With a dst of sufficient capacity it does not allocate.
 //
-// It returns [ErrNonFinite] if from, to or r is not finite, [ErrOrder] if
-// from > to, and [ErrOverflow] if a ray overflows.
+// It returns [ErrNotBuilt], [ErrPlane], [ErrNonFinite] if from, to or r is
+// not finite, [ErrOrder] if from > to, and [ErrOverflow] if a ray
+// overflows.
 func (s System) Trace(r Ray, from, to units.Length, p Plane, dst []Step) ([]Step, error) {
 	dst = dst[:0]
+	if err := s.check(p); err != nil {
+		return dst, err
+	}
 	if !finite(float64(from)) || !finite(float64(to)) || !finite(float64(r.Y)) || !finite(float64(r.Theta)) {
 		return dst, ErrNonFinite
 	}
@@ -428,53 +448,33 @@ func (s System) Trace(r Ray, from, to units.Length, p Plane, dst []Step) ([]Step
 		return dst, ErrOrder
 	}
 	dst = append(dst, Step{Element: -1, Z: from, Ray: r})
-	pos := from
-	if pos < 0 {
-		end := min(0, to)
-		r = Space(end - pos).Apply(r)
-		pos = end
-		if to < 0 {
-			dst = append(dst, Step{Element: -1, Z: to, Ray: r})
-		}
-	}
-	for i := range s.elems {
-		e := &s.elems[i] // not a copy: Element is large and this loop is hot
-		if e.Kind == KindSpace {
-			end := e.Z + e.Length
-			if end < pos || (end == pos && e.Length > 0) {
-				continue // entirely before the start
+	for w := s.walker(from, to); w.next(); {
+		pc := &w.pc
+		switch {
+		case pc.e == nil:
+			r = Space(pc.to - pc.from).Apply(r)
+			if pc.i >= 0 || to < 0 {
+				dst = append(dst, Step{Element: pc.i, Z: pc.to, Ray: r})
 			}
-			if e.Z > to || (e.Z == to && e.Length > 0) {
-				break
-			}
-			stop := min(end, to)
-			b := blocked(r.Y, e.Aperture)
-			r = Space(stop - max(pos, e.Z)).Apply(r)
-			pos = stop
-			dst = append(dst, Step{Element: i, Z: pos, Ray: r, Blocked: b || blocked(r.Y, e.Aperture)})
-			if end > to {
-				break
-			}
-			continue
+		case pc.e.Kind == KindSpace:
+			b := blocked(r.Y, pc.e, p)
+			r = Space(pc.to - pc.from).Apply(r)
+			dst = append(dst, Step{Element: pc.i, Z: pc.to, Ray: r, Blocked: b || blocked(r.Y, pc.e, p)})
+		default:
+			r = pc.e.matrix(p).Apply(r)
+			dst = append(dst, Step{Element: pc.i, Z: pc.e.Z, Ray: r, Blocked: blocked(r.Y, pc.e, p)})
 		}
-		if e.Z < pos {
-			continue
-		}
-		if e.Z > to {
-			break
-		}
-		r = e.matrix(p).Apply(r)
-		dst = append(dst, Step{Element: i, Z: e.Z, Ray: r, Blocked: blocked(r.Y, e.Aperture)})
-	}
-	if to > pos {
-		r = Space(to - pos).Apply(r)
-		dst = append(dst, Step{Element: len(s.elems), Z: to, Ray: r})
 	}
 	if !finite(float64(r.Y)) || !finite(float64(r.Theta)) {
 		return dst, ErrOverflow
 	}
 	return dst, nil
 }
+
+// MaxFanRays is the largest ray count [System.Fan] accepts: a fan is drawn
+// or summarised, and 10⁴ rays of a 100-element system are already 40 MB of
+// steps.
+const MaxFanRays = 10000
 
 // Fan is a set of rays from one field point filling the entrance pupil,
 // traced through a system.
@@ -488,15 +488,20 @@ type Fan struct {
 	Rays [][]Step
 }
 
-// Fan traces n rays (n ≥ 1) from field point f through the entrance pupil
-// of a (computed by [System.Apertures] for s), at equally spaced pupil
-// coordinates ρ from −1 to 1 (n = 1 gives the chief ray alone), from
-// a.Start to position to. Blocked steps are flagged as in [System.Trace].
+// Fan traces n rays (1 ≤ n ≤ [MaxFanRays]) from field point f through the
+// entrance pupil of a (computed by [System.Stops] for s), at equally
+// spaced pupil coordinates ρ from −1 to 1 (n = 1 gives the chief ray
+// alone), from a.Start to position to. Blocked steps are flagged as in
+// [System.Trace].
 //
-// It returns an error if n < 1 or the trace fails.
-func (s System) Fan(a Apertures, f Field, n int, to units.Length) (Fan, error) {
-	if n < 1 {
-		return Fan{}, errors.New("paraxial: Fan: ray count n = " + strconv.Itoa(n) + ": must be at least 1")
+// It returns an [*ElementError] if n is out of range, and the errors of
+// [System.Trace].
+func (s System) Fan(a Stops, f Field, n int, to units.Length) (Fan, error) {
+	if n < 1 || n > MaxFanRays {
+		return Fan{}, &ElementError{Method: "Fan", Index: -1, Param: "ray count n", Value: n, Reason: "must be in [1, " + strconv.Itoa(MaxFanRays) + "]"}
+	}
+	if err := s.Validate(); err != nil {
+		return Fan{}, err
 	}
 	fan := Fan{Field: f, Pupil: make([]float64, n), Rays: make([][]Step, n)}
 	for i := range n {

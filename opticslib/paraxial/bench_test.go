@@ -79,7 +79,7 @@ func BenchmarkBuild(b *testing.B) {
 		if err != nil {
 			b.Fatal(err)
 		}
-		sinkMatrix = s.Matrix()
+		sinkMatrix = s.Matrix(Tangential)
 	}
 }
 
@@ -91,7 +91,7 @@ var sinkSteps []Step
 func BenchmarkTrace(b *testing.B) {
 	rng := rand.New(rand.NewPCG(4, 4))
 	bl, _ := randomBuilder(rng, 10)
-	bl.Aperture(5 * units.Millimeter)
+	bl.Aperture(ClearRadius(5 * units.Millimeter))
 	s, err := bl.Build()
 	if err != nil {
 		b.Fatal(err)

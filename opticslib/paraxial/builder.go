@@ -4,6 +4,7 @@ import (
 	"math"
 	"strconv"
 
+	"github.com/beamnote/beamnote/opticslib/internal/errtext"
 	"github.com/beamnote/beamnote/opticslib/units"
 )
 
@@ -34,6 +35,10 @@ type Builder struct {
 	// start is the index of the first element added by the most recent
 	// call, comp the index in comps of its component or -1.
 	start, comp int
+	// calls counts the calls that add elements; method is the name of the
+	// current one.
+	calls  int
+	method string
 }
 
 // NewBuilder returns an empty builder whose input medium has index 1
@@ -59,14 +64,22 @@ func validIndex(n float64) bool { return n >= MinIndex && n <= MaxIndex } // NaN
 
 func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 
-func (b *Builder) fail(k Kind, param string, v float64, length bool, reason string) {
-	b.err = &ElementError{Index: len(b.elems), Kind: k, Param: param, Value: v, Length: length, Reason: reason}
+// call starts builder call m: it counts the call and names it in errors.
+func (b *Builder) call(m string) {
+	b.calls++
+	b.method = m
+}
+
+// fail keeps the first error: parameter param of the current call has
+// value v (a units.Length, units.Angle or float64), which fails reason.
+func (b *Builder) fail(k Kind, param string, v any, reason string) {
+	b.err = &ElementError{Method: b.method, Call: b.calls, Index: len(b.elems), Kind: k, Param: param, Value: v, Reason: reason}
 }
 
 // checkRadius validates a radius that may be [Flat] (±Inf).
 func (b *Builder) checkRadius(k Kind, param string, r units.Length, what string) bool {
 	if math.IsNaN(float64(r)) || r == 0 {
-		b.fail(k, param, float64(r), true, "must be nonzero and not NaN (use paraxial.Flat for a flat "+what+")")
+		b.fail(k, param, r, "must be nonzero and not NaN (use paraxial.Flat for a flat "+what+")")
 		return false
 	}
 	return true
@@ -75,7 +88,7 @@ func (b *Builder) checkRadius(k Kind, param string, r units.Length, what string)
 // checkTilt validates an angle of incidence.
 func (b *Builder) checkTilt(k Kind, aoi units.Angle) bool {
 	if !finite(float64(aoi)) || math.Abs(float64(aoi)) >= math.Pi/2 {
-		b.fail(k, "angle of incidence θ", float64(aoi), false, "must be finite with |θ| < π/2 rad")
+		b.fail(k, "angle of incidence θ", aoi, "must be finite with |θ| < 90°")
 		return false
 	}
 	return true
@@ -84,7 +97,7 @@ func (b *Builder) checkTilt(k Kind, aoi units.Angle) bool {
 // checkFocal validates a thin-lens focal length: nonzero and finite.
 func (b *Builder) checkFocal(k Kind, f units.Length) bool {
 	if !finite(float64(f)) || f == 0 {
-		b.fail(k, "focal length f", float64(f), true, "must be nonzero and finite")
+		b.fail(k, "focal length f", f, "must be nonzero and finite")
 		return false
 	}
 	return true
@@ -99,11 +112,11 @@ func (b *Builder) Medium(n float64) *Builder {
 		return b
 	}
 	if len(b.elems) > 0 {
-		b.err = &ElementError{Index: len(b.elems), Op: "Medium", Param: "index n", Value: n, Err: ErrMediumAfterElements}
+		b.err = &ElementError{Method: "Medium", Index: len(b.elems), Param: "index n", Value: n, Err: ErrMediumAfterElements}
 		return b
 	}
 	if !validIndex(n) {
-		b.err = &ElementError{Index: 0, Op: "Medium", Param: "index n", Value: n, Reason: indexReason}
+		b.err = &ElementError{Method: "Medium", Index: 0, Param: "index n", Value: n, Reason: indexReason}
 		return b
 	}
 	b.n = n
@@ -116,6 +129,7 @@ func (b *Builder) begin() {
 }
 
 func (b *Builder) add(e Element) {
+	e.Call, e.Method = b.calls, b.method
 	b.elems = append(b.elems, e)
 }
 
@@ -125,8 +139,9 @@ func (b *Builder) Space(d units.Length) *Builder {
 	if b.err != nil {
 		return b
 	}
+	b.call("Space")
 	if !finite(float64(d)) || d < 0 {
-		b.fail(KindSpace, "length d", float64(d), true, "must be non-negative and finite")
+		b.fail(KindSpace, "length d", d, "must be non-negative and finite")
 		return b
 	}
 	b.begin()
@@ -142,6 +157,7 @@ func (b *Builder) ThinLens(f units.Length) *Builder {
 	if b.err != nil {
 		return b
 	}
+	b.call("ThinLens")
 	if !b.checkFocal(KindThinLens, f) {
 		return b
 	}
@@ -160,12 +176,13 @@ func (b *Builder) Interface(r units.Length, n2 float64) *Builder {
 	if b.err != nil {
 		return b
 	}
+	b.call("Interface")
 	if !finite(float64(r)) || r == 0 {
-		b.fail(KindSphericalInterface, "radius R", float64(r), true, "must be nonzero and finite (use PlanarInterface for a flat surface)")
+		b.fail(KindSphericalInterface, "radius R", r, "must be nonzero and finite (use PlanarInterface for a flat surface)")
 		return b
 	}
 	if !validIndex(n2) {
-		b.fail(KindSphericalInterface, "index n2", n2, false, indexReason)
+		b.fail(KindSphericalInterface, "index n2", n2, indexReason)
 		return b
 	}
 	b.begin()
@@ -182,8 +199,9 @@ func (b *Builder) PlanarInterface(n2 float64) *Builder {
 	if b.err != nil {
 		return b
 	}
+	b.call("PlanarInterface")
 	if !validIndex(n2) {
-		b.fail(KindPlanarInterface, "index n2", n2, false, indexReason)
+		b.fail(KindPlanarInterface, "index n2", n2, indexReason)
 		return b
 	}
 	b.begin()
@@ -219,15 +237,16 @@ func (b *Builder) ThickLens(r1, r2, t units.Length, n float64) *Builder {
 	if b.err != nil {
 		return b
 	}
+	b.call("ThickLens")
 	if !b.checkRadius(KindThickLens, "front radius R1", r1, "side") || !b.checkRadius(KindThickLens, "back radius R2", r2, "side") {
 		return b
 	}
 	if !finite(float64(t)) || t <= 0 {
-		b.fail(KindThickLens, "centre thickness t", float64(t), true, "must be positive and finite")
+		b.fail(KindThickLens, "centre thickness t", t, "must be positive and finite")
 		return b
 	}
 	if !validIndex(n) {
-		b.fail(KindThickLens, "index n", n, false, indexReason)
+		b.fail(KindThickLens, "index n", n, indexReason)
 		return b
 	}
 	b.begin()
@@ -260,12 +279,13 @@ func (b *Builder) Plate(t units.Length, n float64, aoi units.Angle) *Builder {
 	if b.err != nil {
 		return b
 	}
+	b.call("Plate")
 	if !finite(float64(t)) || t <= 0 {
-		b.fail(KindPlate, "thickness t", float64(t), true, "must be positive and finite")
+		b.fail(KindPlate, "thickness t", t, "must be positive and finite")
 		return b
 	}
 	if !validIndex(n) {
-		b.fail(KindPlate, "index n", n, false, indexReason)
+		b.fail(KindPlate, "index n", n, indexReason)
 		return b
 	}
 	if !b.checkTilt(KindPlate, aoi) {
@@ -274,7 +294,7 @@ func (b *Builder) Plate(t units.Length, n float64, aoi units.Angle) *Builder {
 	n0 := b.n
 	sin2 := n0 * math.Sin(float64(aoi)) / n
 	if math.Abs(sin2) >= 1 {
-		b.fail(KindPlate, "angle of incidence θ", float64(aoi), false, "is beyond the critical angle for n0 = "+strconv.FormatFloat(n0, 'g', -1, 64)+" into n = "+strconv.FormatFloat(n, 'g', -1, 64))
+		b.fail(KindPlate, "angle of incidence θ", aoi, "is beyond the critical angle for n0 = "+strconv.FormatFloat(n0, 'g', -1, 64)+" into n = "+strconv.FormatFloat(n, 'g', -1, 64))
 		return b
 	}
 	inner := units.Angle(math.Asin(sin2))
@@ -291,17 +311,62 @@ func (b *Builder) Plate(t units.Length, n float64, aoi units.Angle) *Builder {
 	return b
 }
 
-// Mirror appends a mirror of radius r (metres, nonzero, not NaN; [Flat]
-// for a flat mirror; r < 0 for a concave mirror facing the light, whose
-// focal length is f = −r/2 > 0) met at angle of incidence aoi (radians,
-// |aoi| < π/2) in the current medium. The path is unfolded: light leaves
-// towards +z, and the element's matrices are those of [Mirror], with
+// ConcaveMirror appends a concave (converging) mirror of radius of
+// curvature r, the positive number printed on the part (metres, > 0,
+// finite; focal length r/2), met at angle of incidence aoi (radians,
+// |aoi| < π/2; 0 at normal incidence) in the current medium. The path is
+// unfolded: light leaves towards +z, and the element's matrices are those
+// of [Mirror] with the signed radius −r of the package's convention, with
 // tangential focal length f·cos θ and sagittal f/cos θ.
-func (b *Builder) Mirror(r units.Length, aoi units.Angle) *Builder {
+func (b *Builder) ConcaveMirror(r units.Length, aoi units.Angle) *Builder {
+	return b.mirror("ConcaveMirror", "radius of curvature R", r, -r, aoi)
+}
+
+// ConvexMirror appends a convex (diverging) mirror of radius of curvature
+// r, the positive number printed on the part (metres, > 0, finite; focal
+// length −r/2), met at angle of incidence aoi (radians, |aoi| < π/2). See
+// [Builder.ConcaveMirror].
+func (b *Builder) ConvexMirror(r units.Length, aoi units.Angle) *Builder {
+	return b.mirror("ConvexMirror", "radius of curvature R", r, r, aoi)
+}
+
+// MirrorOfFocalLength appends a curved mirror of focal length f (metres,
+// nonzero, finite; f > 0 for a concave mirror, f < 0 for a convex one, as
+// a focal length is signed for any converging or diverging element) met at
+// angle of incidence aoi. Its radius of curvature is 2|f|.
+func (b *Builder) MirrorOfFocalLength(f units.Length, aoi units.Angle) *Builder {
 	if b.err != nil {
 		return b
 	}
-	if !b.checkRadius(KindMirror, "radius R", r, "mirror") || !b.checkTilt(KindMirror, aoi) {
+	if !finite(float64(f)) || f == 0 {
+		b.call("MirrorOfFocalLength")
+		b.fail(KindMirror, "focal length f", f, "must be nonzero and finite (positive for a concave mirror)")
+		return b
+	}
+	return b.mirror("MirrorOfFocalLength", "", 2*abs(f), -2*f, aoi)
+}
+
+// FlatMirror appends a flat fold mirror met at angle of incidence aoi
+// (radians, |aoi| < π/2). It leaves the beam unchanged in the unfolded
+// path; its clear aperture is what matters, see [Builder.Aperture].
+func (b *Builder) FlatMirror(aoi units.Angle) *Builder {
+	return b.mirror("FlatMirror", "", Flat, Flat, aoi)
+}
+
+func abs(l units.Length) units.Length { return units.Length(math.Abs(float64(l))) }
+
+// mirror adds a mirror of printed radius printed (> 0, checked when param
+// is not empty) and signed radius r in the package's convention.
+func (b *Builder) mirror(method, param string, printed, r units.Length, aoi units.Angle) *Builder {
+	if b.err != nil {
+		return b
+	}
+	b.call(method)
+	if param != "" && (!finite(float64(printed)) || printed <= 0) {
+		b.fail(KindMirror, param, printed, "must be positive and finite: give the number printed on the part and choose ConcaveMirror or ConvexMirror (FlatMirror for a flat one)")
+		return b
+	}
+	if !b.checkTilt(KindMirror, aoi) {
 		return b
 	}
 	b.begin()
@@ -316,16 +381,19 @@ func (b *Builder) Mirror(r units.Length, aoi units.Angle) *Builder {
 
 // CylindricalLens appends a thin cylindrical lens of focal length f
 // (metres, nonzero, finite) with power in plane p only; its matrices are
-// [CylindricalLens](f, p).
+// [CylindricalLens](f, p). A plane other than Tangential and Sagittal is an
+// error wrapping [ErrPlane].
 func (b *Builder) CylindricalLens(f units.Length, p Plane) *Builder {
 	if b.err != nil {
 		return b
 	}
+	b.call("CylindricalLens")
 	if !b.checkFocal(KindCylindricalLens, f) {
 		return b
 	}
-	if p != Tangential && p != Sagittal {
-		b.fail(KindCylindricalLens, "plane", float64(p), false, "must be Tangential or Sagittal")
+	if !p.valid() {
+		b.fail(KindCylindricalLens, "plane", int(p), "")
+		b.err.(*ElementError).Err = ErrPlane
 		return b
 	}
 	b.begin()
@@ -334,20 +402,26 @@ func (b *Builder) CylindricalLens(f units.Length, p Plane) *Builder {
 	return b
 }
 
-// Diaphragm appends an opaque screen with a circular opening of radius
-// (metres, > 0, finite), such as an iris that serves as aperture stop or a
-// field diaphragm. It does not deflect rays (identity matrices); its
-// Aperture is the opening radius.
-func (b *Builder) Diaphragm(radius units.Length) *Builder {
+// Diaphragm appends an opaque screen with an opening o, such as an iris
+// that serves as aperture stop, a field diaphragm, a pinhole or a slit:
+// Diaphragm(paraxial.ClearDiameter(50*units.Micrometer)) is a 50 µm
+// pinhole. It does not deflect rays (identity matrices); its Aperture is
+// o, which must limit the beam (Radius > 0).
+func (b *Builder) Diaphragm(o Opening) *Builder {
 	if b.err != nil {
 		return b
 	}
-	if !finite(float64(radius)) || radius <= 0 {
-		b.fail(KindDiaphragm, "opening radius", float64(radius), true, "must be positive and finite")
+	b.call("Diaphragm")
+	if param, v, reason := o.validate(); param != "" {
+		b.fail(KindDiaphragm, param, v, reason)
+		return b
+	}
+	if !o.Limited() {
+		b.fail(KindDiaphragm, "clear radius", o.Radius, "must be positive: a diaphragm has an opening")
 		return b
 	}
 	b.begin()
-	b.add(Element{Kind: KindDiaphragm, Aperture: radius, IndexIn: b.n, IndexOut: b.n, X: Identity(), Y: Identity()})
+	b.add(Element{Kind: KindDiaphragm, Aperture: o, IndexIn: b.n, IndexOut: b.n, X: Identity(), Y: Identity()})
 	return b
 }
 
@@ -366,6 +440,7 @@ func (b *Builder) Matrix(x, y Matrix) *Builder {
 	if b.err != nil {
 		return b
 	}
+	b.call("Matrix")
 	for _, m := range []struct {
 		name string
 		m    Matrix
@@ -375,12 +450,12 @@ func (b *Builder) Matrix(x, y Matrix) *Builder {
 			v    float64
 		}{{"A", m.m.A}, {"B", m.m.B}, {"C", m.m.C}, {"D", m.m.D}} {
 			if !finite(v.v) {
-				b.fail(KindMatrix, m.name+"."+v.name, v.v, false, "must be finite")
+				b.fail(KindMatrix, m.name+"."+v.name, v.v, "must be finite")
 				return b
 			}
 		}
 		if d := m.m.Det(); !finite(d) || math.Abs(d-1) > detTolerance {
-			b.fail(KindMatrix, "det "+m.name, d, false, "must be 1 (the element keeps the medium)")
+			b.fail(KindMatrix, "det "+m.name, d, "must be 1 (the element keeps the medium)")
 			return b
 		}
 	}
@@ -392,18 +467,20 @@ func (b *Builder) Matrix(x, y Matrix) *Builder {
 // Append appends every element of sub, a system built earlier, so that a
 // sub-assembly (a telescope, a relay) can be used several times. sub's
 // input index must equal the current index (relative 1e-12); the current
-// index becomes sub's output index. Labels, apertures and components are
-// kept. An empty sub adds nothing.
+// index becomes sub's output index. Labels, apertures, components and the
+// sub-system's own call numbers and methods are kept; the append counts as
+// one call. An empty sub adds nothing.
 func (b *Builder) Append(sub System) *Builder {
 	if b.err != nil {
 		return b
 	}
-	if !validIndex(sub.nIn) {
-		b.err = &ElementError{Index: len(b.elems), Op: "Append", Param: "sub-system input index", Value: sub.nIn, Reason: indexReason + " (build the sub-system with a Builder)"}
+	b.call("Append")
+	if !sub.built {
+		b.err = &ElementError{Method: "Append", Call: b.calls, Index: len(b.elems), Param: "sub-system", Err: ErrNotBuilt}
 		return b
 	}
 	if math.Abs(sub.nIn-b.n) > 1e-12*b.n {
-		b.err = &ElementError{Index: len(b.elems), Op: "Append", Param: "sub-system input index", Value: sub.nIn, Reason: "must equal the current index " + strconv.FormatFloat(b.n, 'g', -1, 64)}
+		b.err = &ElementError{Method: "Append", Call: b.calls, Index: len(b.elems), Param: "sub-system input index", Value: sub.nIn, Reason: "must equal the current index " + strconv.FormatFloat(b.n, 'g', -1, 64)}
 		return b
 	}
 	b.begin()
@@ -419,14 +496,20 @@ func (b *Builder) Append(sub System) *Builder {
 
 // Label names what the most recent call added: the element, the three
 // elements and the component of a thick lens or plate, or every element of
-// an appended system. Labels are free text and need not be unique.
-// Calling Label before any element is an error wrapping [ErrNoElement].
+// an appended system. Labels are free text; the edits and lookups by label
+// ([System.Part], [System.Move], …) use the first part with the label, so
+// keep them unique. Calling Label before any element is an error wrapping
+// [ErrNoElement]. If the most recent call failed, its error takes the
+// label, so that the message names the part.
 func (b *Builder) Label(name string) *Builder {
 	if b.err != nil {
+		if e, ok := b.err.(*ElementError); ok && e.Call == b.calls && e.Call > 0 && e.Label == "" {
+			e.Label = name
+		}
 		return b
 	}
 	if len(b.elems) == 0 {
-		b.err = &ElementError{Index: 0, Op: "Label(" + quote(name) + ")", Err: ErrNoElement}
+		b.err = &ElementError{Method: "Label", Index: 0, Param: "label", Value: errtext.Quote(name), Err: ErrNoElement}
 		return b
 	}
 	for i := b.start; i < len(b.elems); i++ {
@@ -438,37 +521,73 @@ func (b *Builder) Label(name string) *Builder {
 	return b
 }
 
-// Aperture sets the clear-aperture radius (metres, ≥ 0, finite; 0 means
-// unlimited) of what the most recent call added: the element, both
-// surfaces of a thick lens or plate, or every surface of an appended
-// system. After [Builder.Space] it sets the aperture of the gap (a tube,
-// checked at both ends). Calling Aperture before any element is an error
-// wrapping [ErrNoElement].
-func (b *Builder) Aperture(radius units.Length) *Builder {
+// Aperture sets the clear aperture o of what the most recent call added:
+// the element, both surfaces of a thick lens or plate, or every surface of
+// an appended system. After [Builder.Space] it is a tube, checked along
+// the whole gap. Give it as the part is specified:
+//
+//	Aperture(paraxial.ClearDiameter(25.4 * units.Millimeter))
+//	Aperture(paraxial.OneInchOptic())
+//
+// On a thick lens the clear radius must not exceed the radius of either
+// curved side and must leave a positive edge thickness
+//
+//	t_edge = t − s(R1, a) + s(R2, a),   s(R, a) = R − sign(R)·√(R² − a²)
+//
+// (the sag of a spherical surface; W. J. Smith, Modern Optical Engineering,
+// 4th ed., 2008, ch. 13 [from memory]). Calling Aperture before any element
+// is an error wrapping [ErrNoElement].
+func (b *Builder) Aperture(o Opening) *Builder {
 	if b.err != nil {
 		return b
 	}
 	if len(b.elems) == 0 {
-		b.err = &ElementError{Index: 0, Op: "Aperture", Param: "radius", Value: float64(radius), Length: true, Err: ErrNoElement}
+		b.err = &ElementError{Method: "Aperture", Index: 0, Param: "clear radius", Value: o.Radius, Err: ErrNoElement}
 		return b
 	}
 	last := len(b.elems) - 1
-	if !finite(float64(radius)) || radius < 0 {
-		k := b.elems[last].Kind
-		idx := last
-		if b.comp >= 0 {
-			k, idx = b.comps[b.comp].Kind, b.start
-		}
-		b.err = &ElementError{Index: idx, Kind: k, Param: "aperture radius", Value: float64(radius), Length: true, Reason: "must be non-negative and finite"}
+	k, idx, label := b.elems[last].Kind, last, b.elems[last].Label
+	if b.comp >= 0 {
+		k, idx = b.comps[b.comp].Kind, b.start
+	}
+	bad := func(param string, v any, reason string) *Builder {
+		b.err = &ElementError{Method: b.method + ".Aperture", Call: b.calls, Label: label, Index: idx, Kind: k, Param: param, Value: v, Reason: reason}
 		return b
+	}
+	if param, v, reason := o.validate(); param != "" {
+		return bad(param, v, reason)
+	}
+	if b.comp >= 0 && b.comps[b.comp].Kind == KindThickLens && o.Limited() {
+		front, back := b.elems[b.start], b.elems[b.start+2]
+		a := float64(o.Radius) + math.Hypot(float64(o.OffsetX), float64(o.OffsetY))
+		for _, e := range []Element{front, back} {
+			if e.Kind == KindSphericalInterface && a > math.Abs(float64(e.Radius)) {
+				return bad("clear radius", o.Radius, "exceeds the radius of curvature |R| = "+abs(e.Radius).String()+" of a side of the lens")
+			}
+		}
+		t := float64(b.elems[b.start+1].Length)
+		edge := t - sag(front, a) + sag(back, a)
+		if edge <= 0 {
+			return bad("clear radius", o.Radius, "leaves an edge thickness of "+units.Length(edge).String()+" (centre "+units.Length(t).String()+"): no such lens")
+		}
 	}
 	single := b.start == last
 	for i := b.start; i <= last; i++ {
 		if single || b.elems[i].IsSurface() {
-			b.elems[i].Aperture = radius
+			b.elems[i].Aperture = o
 		}
 	}
 	return b
+}
+
+// sag returns the signed sag (metres, positive towards +z) at height a of
+// a lens surface element: zero for a flat one.
+func sag(e Element, a float64) float64 {
+	if e.Kind != KindSphericalInterface {
+		return 0
+	}
+	r := float64(e.Radius)
+	return r - math.Copysign(math.Sqrt(float64(r*r)-float64(a*a)), r)
 }
 
 // Err returns the first error met so far, or nil.
@@ -487,7 +606,7 @@ func (b *Builder) Build() (System, error) {
 	if b.err != nil {
 		return System{}, b.err
 	}
-	return assemble(b.elems, b.comps, b.nIn(), b.n)
+	return assemble(b.elems, b.comps, b.nIn(), b.n, "Build")
 }
 
 func (b *Builder) nIn() float64 {
@@ -495,13 +614,4 @@ func (b *Builder) nIn() float64 {
 		return b.n
 	}
 	return b.elems[0].IndexIn
-}
-
-func quote(s string) string {
-	const max = 32
-	r := []rune(s)
-	if len(r) > max {
-		s = string(r[:max]) + "…"
-	}
-	return "\"" + s + "\""
 }

@@ -22,69 +22,85 @@ func TestBuilderErrors(t *testing.T) {
 		is   error
 	}{
 		{"zero focal", NewBuilder().Space(0.1).Space(0.1).Space(0.1).ThinLens(0),
-			"paraxial: element 3 (thin lens): focal length f = 0 m: must be nonzero and finite", nil},
+			"paraxial: ThinLens (call 4): focal length f = 0 m: must be nonzero and finite", nil},
 		{"nan focal", NewBuilder().ThinLens(units.Length(nan)),
-			"paraxial: element 0 (thin lens): focal length f = NaN m: must be nonzero and finite", nil},
+			"paraxial: ThinLens (call 1): focal length f = NaN m: must be nonzero and finite", nil},
 		{"negative space", NewBuilder().ThinLens(0.1).Space(-5 * units.Millimeter),
-			"paraxial: element 1 (space): length d = -5 mm: must be non-negative and finite", nil},
+			"paraxial: Space (call 2): length d = -5 mm: must be non-negative and finite", nil},
 		{"inf space", NewBuilder().Space(units.Length(inf)),
-			"paraxial: element 0 (space): length d = +Inf m: must be non-negative and finite", nil},
+			"paraxial: Space (call 1): length d = +Inf m: must be non-negative and finite", nil},
 		{"zero radius", NewBuilder().Interface(0, 1.5),
-			"paraxial: element 0 (spherical interface): radius R = 0 m: must be nonzero and finite (use PlanarInterface for a flat surface)", nil},
+			"paraxial: Interface (call 1): radius R = 0 m: must be nonzero and finite (use PlanarInterface for a flat surface)", nil},
 		{"bad n2", NewBuilder().Space(1).Interface(0.1, -1.5),
-			"paraxial: element 1 (spherical interface): index n2 = -1.5: must be finite and in [1e-3, 1e3]", nil},
+			"paraxial: Interface (call 2): index n2 = -1.5: must be finite and in [1e-3, 1e3]", nil},
 		{"planar zero n", NewBuilder().PlanarInterface(0),
-			"paraxial: element 0 (planar interface): index n2 = 0: must be finite and in [1e-3, 1e3]", nil},
+			"paraxial: PlanarInterface (call 1): index n2 = 0: must be finite and in [1e-3, 1e3]", nil},
 		{"medium nan", NewBuilder().Medium(nan),
-			"paraxial: Medium at element 0: index n = NaN: must be finite and in [1e-3, 1e3]", nil},
+			"paraxial: Medium: index n = NaN: must be finite and in [1e-3, 1e3]", nil},
 		{"medium late", NewBuilder().Space(1).Medium(1.5),
-			"paraxial: Medium at element 1: index n = 1.5: medium can only be set before the first element; use an interface to change index", ErrMediumAfterElements},
+			"paraxial: Medium: index n = 1.5: medium can only be set before the first element; use an interface to change index", ErrMediumAfterElements},
 		{"label first", NewBuilder().Label("L1"),
-			"paraxial: Label(\"L1\") at element 0: no element to modify", ErrNoElement},
-		{"aperture first", NewBuilder().Aperture(1),
-			"paraxial: Aperture at element 0: radius = 1 m: no element to modify", ErrNoElement},
-		{"aperture negative", NewBuilder().ThinLens(0.1).Aperture(-1 * units.Millimeter),
-			"paraxial: element 0 (thin lens): aperture radius = -1 mm: must be non-negative and finite", nil},
+			"paraxial: Label: label = \"L1\": no element to modify", ErrNoElement},
+		{"aperture first", NewBuilder().Aperture(ClearRadius(1)),
+			"paraxial: Aperture: clear radius = 1 m: no element to modify", ErrNoElement},
+		{"aperture negative", NewBuilder().ThinLens(0.1).Aperture(ClearRadius(-1 * units.Millimeter)),
+			"paraxial: ThinLens.Aperture (call 1): clear radius = -1 mm: must be non-negative and finite (0 means unlimited)", nil},
 		{"sticky first error", NewBuilder().ThinLens(0).Space(-1).Interface(0, 0),
-			"paraxial: element 0 (thin lens): focal length f = 0 m: must be nonzero and finite", nil},
+			"paraxial: ThinLens (call 1): focal length f = 0 m: must be nonzero and finite", nil},
 		{"overflow", NewBuilder().Space(1e300).ThinLens(1e-300).Space(1e300),
-			"paraxial: element 1 (thin lens): matrix entry overflowed (not finite)", ErrOverflow},
+			"paraxial: ThinLens (call 2): Build: the running product overflows here: matrix entry overflowed (not finite)", ErrOverflow},
 		{"thick lens zero radius", NewBuilder().Space(1).ThickLens(0, -0.05, 0.005, 1.5),
-			"paraxial: element 1 (thick lens): front radius R1 = 0 m: must be nonzero and not NaN (use paraxial.Flat for a flat side)", nil},
+			"paraxial: ThickLens (call 2): front radius R1 = 0 m: must be nonzero and not NaN (use paraxial.Flat for a flat side)", nil},
 		{"thick lens NaN R2", NewBuilder().ThickLens(0.05, units.Length(nan), 0.005, 1.5),
-			"paraxial: element 0 (thick lens): back radius R2 = NaN m: must be nonzero and not NaN (use paraxial.Flat for a flat side)", nil},
+			"paraxial: ThickLens (call 1): back radius R2 = NaN m: must be nonzero and not NaN (use paraxial.Flat for a flat side)", nil},
 		{"thick lens negative thickness", NewBuilder().ThickLens(0.05, -0.05, -2*mm, 1.5),
-			"paraxial: element 0 (thick lens): centre thickness t = -2 mm: must be positive and finite", nil},
+			"paraxial: ThickLens (call 1): centre thickness t = -2 mm: must be positive and finite", nil},
 		{"thick lens bad index", NewBuilder().ThickLens(0.05, -0.05, 2*mm, 0),
-			"paraxial: element 0 (thick lens): index n = 0: must be finite and in [1e-3, 1e3]", nil},
+			"paraxial: ThickLens (call 1): index n = 0: must be finite and in [1e-3, 1e3]", nil},
 		{"plate inf thickness", NewBuilder().Plate(units.Length(inf), 1.5, 0),
-			"paraxial: element 0 (plate): thickness t = +Inf m: must be positive and finite", nil},
+			"paraxial: Plate (call 1): thickness t = +Inf m: must be positive and finite", nil},
 		{"plate index NaN", NewBuilder().Plate(1*mm, nan, 0),
-			"paraxial: element 0 (plate): index n = NaN: must be finite and in [1e-3, 1e3]", nil},
+			"paraxial: Plate (call 1): index n = NaN: must be finite and in [1e-3, 1e3]", nil},
 		{"plate 90°", NewBuilder().Plate(1*mm, 1.5, math.Pi/2),
-			"paraxial: element 0 (plate): angle of incidence θ = 1.5707963267948966: must be finite with |θ| < π/2 rad", nil},
+			"paraxial: Plate (call 1): angle of incidence θ = 90° (1.5708 rad): must be finite with |θ| < 90°", nil},
 		{"plate TIR", NewBuilder().Medium(1.5).Plate(1*mm, 1, 60*units.Degree),
-			"paraxial: element 0 (plate): angle of incidence θ = 1.0471975511965976: is beyond the critical angle for n0 = 1.5 into n = 1", nil},
-		{"mirror zero radius", NewBuilder().Space(1).ThinLens(1).Mirror(0, 0),
-			"paraxial: element 2 (mirror): radius R = 0 m: must be nonzero and not NaN (use paraxial.Flat for a flat mirror)", nil},
-		{"mirror NaN tilt", NewBuilder().Mirror(-1, units.Angle(nan)),
-			"paraxial: element 0 (mirror): angle of incidence θ = NaN: must be finite with |θ| < π/2 rad", nil},
+			"paraxial: Plate (call 1): angle of incidence θ = 60° (1.0472 rad): is beyond the critical angle for n0 = 1.5 into n = 1", nil},
+		{"mirror zero radius", NewBuilder().Space(1).ThinLens(1).ConcaveMirror(0, 0),
+			"paraxial: ConcaveMirror (call 3): radius of curvature R = 0 m: must be positive and finite: give the number printed on the part and choose ConcaveMirror or ConvexMirror (FlatMirror for a flat one)", nil},
+		{"mirror signed radius", NewBuilder().Space(1).ConvexMirror(-200*mm, 0).Label("M2"),
+			"paraxial: ConvexMirror \"M2\" (call 2): radius of curvature R = -200 mm: must be positive and finite: give the number printed on the part and choose ConcaveMirror or ConvexMirror (FlatMirror for a flat one)", nil},
+		{"mirror zero focal length", NewBuilder().MirrorOfFocalLength(0, 0),
+			"paraxial: MirrorOfFocalLength (call 1): focal length f = 0 m: must be nonzero and finite (positive for a concave mirror)", nil},
+		{"label names the failed call", NewBuilder().Space(1).ThickLens(0.05, -0.05, 2*mm, 1.5).Label("L1").Space(10*mm).ThinLens(0).Label("L2"),
+			"paraxial: ThinLens \"L2\" (call 4): focal length f = 0 m: must be nonzero and finite", nil},
+		{"thick lens aperture beyond R", NewBuilder().ThickLens(10*mm, -10*mm, 8*mm, 1.5).Label("ball-ish").Aperture(ClearDiameter(25.4*mm)),
+			"paraxial: ThickLens.Aperture \"ball-ish\" (call 1): clear radius = 12.7 mm: exceeds the radius of curvature |R| = 10 mm of a side of the lens", nil},
+		{"thick lens negative edge", NewBuilder().ThickLens(20*mm, -20*mm, 2*mm, 1.5).Label("L3").Aperture(ClearDiameter(20*mm)),
+			"paraxial: ThickLens.Aperture \"L3\" (call 1): clear radius = 10 mm: leaves an edge thickness of -3.35898 mm (centre 2 mm): no such lens", nil},
+		{"slit bad plane", NewBuilder().Space(1).Diaphragm(SlitOfWidth(0.1*mm, Plane(3))),
+			"paraxial: Diaphragm (call 2): slit plane = 3: must be Tangential or Sagittal", nil},
+		{"opening threshold", NewBuilder().Space(1).Diaphragm(ClearDiameter(50 * units.Micrometer).WithMinTransmission(1.5)),
+			"paraxial: Diaphragm (call 2): minimum transmission = 1.5: must be in (0, 1], or 0 for the path-wide threshold", nil},
+		{"opening offset NaN", NewBuilder().ThinLens(0.1).Aperture(ClearDiameter(1).Offset(units.Length(nan), 0)),
+			"paraxial: ThinLens.Aperture (call 1): opening offset x = NaN m: must be finite", nil},
+		{"mirror NaN tilt", NewBuilder().ConcaveMirror(1, units.Angle(nan)),
+			"paraxial: ConcaveMirror (call 1): angle of incidence θ = NaN° (NaN rad): must be finite with |θ| < 90°", nil},
 		{"cylinder zero f", NewBuilder().CylindricalLens(0, Sagittal),
-			"paraxial: element 0 (cylindrical lens): focal length f = 0 m: must be nonzero and finite", nil},
+			"paraxial: CylindricalLens (call 1): focal length f = 0 m: must be nonzero and finite", nil},
 		{"cylinder bad plane", NewBuilder().CylindricalLens(1, Plane(7)),
-			"paraxial: element 0 (cylindrical lens): plane = 7: must be Tangential or Sagittal", nil},
+			"paraxial: CylindricalLens (call 1): plane = 7: plane must be Tangential or Sagittal", ErrPlane},
 		{"matrix NaN", NewBuilder().Matrix(Matrix{A: 1, B: nan, D: 1}, Identity()),
-			"paraxial: element 0 (matrix): X.B = NaN: must be finite", nil},
+			"paraxial: Matrix (call 1): X.B = NaN: must be finite", nil},
 		{"matrix det", NewBuilder().Matrix(Identity(), Matrix{A: 2, D: 1}),
-			"paraxial: element 0 (matrix): det Y = 2: must be 1 (the element keeps the medium)", nil},
-		{"diaphragm zero", NewBuilder().Space(1).Diaphragm(0),
-			"paraxial: element 1 (diaphragm): opening radius = 0 m: must be positive and finite", nil},
-		{"aperture on thick lens", NewBuilder().Space(1).ThickLens(0.05, -0.05, 2*mm, 1.5).Aperture(-1),
-			"paraxial: element 1 (thick lens): aperture radius = -1 m: must be non-negative and finite", nil},
+			"paraxial: Matrix (call 1): det Y = 2: must be 1 (the element keeps the medium)", nil},
+		{"diaphragm zero", NewBuilder().Space(1).Diaphragm(ClearRadius(0)),
+			"paraxial: Diaphragm (call 2): clear radius = 0 m: must be positive: a diaphragm has an opening", nil},
+		{"aperture on thick lens", NewBuilder().Space(1).ThickLens(0.05, -0.05, 2*mm, 1.5).Aperture(ClearRadius(-1)),
+			"paraxial: ThickLens.Aperture (call 2): clear radius = -1 m: must be non-negative and finite (0 means unlimited)", nil},
 		{"append unbuilt", NewBuilder().Append(System{}),
-			"paraxial: Append at element 0: sub-system input index = 0: must be finite and in [1e-3, 1e3] (build the sub-system with a Builder)", nil},
+			"paraxial: Append (call 1): sub-system: system not built (the zero System value); use Builder.Build and check its error", ErrNotBuilt},
 		{"append index", NewBuilder().Append(mustBuild(t, NewBuilder().Medium(1.33).Space(1))),
-			"paraxial: Append at element 0: sub-system input index = 1.33: must equal the current index 1", nil},
+			"paraxial: Append (call 1): sub-system input index = 1.33: must equal the current index 1", nil},
 	} {
 		_, err := test.b.Build()
 		if err == nil {
@@ -108,12 +124,12 @@ func TestBuilderErrors(t *testing.T) {
 }
 
 func TestBuilderValid(t *testing.T) {
-	b := NewBuilder().Medium(1.33).Space(0).ThinLens(-0.1).Aperture(0).Label("").Aperture(5 * units.Millimeter)
+	b := NewBuilder().Medium(1.33).Space(0).ThinLens(-0.1).Aperture(ClearRadius(0)).Label("").Aperture(ClearRadius(5 * units.Millimeter))
 	s, err := b.Build()
 	if err != nil {
 		t.Fatalf("Build() error: %v", err)
 	}
-	if s.Len() != 2 || s.IndexIn() != 1.33 || s.IndexOut() != 1.33 || s.Element(1).Aperture != 5*units.Millimeter {
+	if s.Len() != 2 || s.IndexIn() != 1.33 || s.IndexOut() != 1.33 || s.Element(1).Aperture != ClearRadius(5*units.Millimeter) {
 		t.Errorf("Build() = %+v, want 2 elements in n = 1.33 with a 5 mm aperture on element 1", s)
 	}
 	// Systems are independent of later builder calls.
@@ -122,7 +138,7 @@ func TestBuilderValid(t *testing.T) {
 		t.Errorf("System changed after a later builder call: Len() = %d, Length() = %v", s.Len(), s.Length())
 	}
 	empty, err := NewBuilder().Build()
-	if err != nil || empty.Len() != 0 || empty.Matrix() != Identity() || empty.IndexIn() != 1 {
+	if err != nil || empty.Len() != 0 || empty.Matrix(Tangential) != Identity() || empty.IndexIn() != 1 {
 		t.Errorf("empty Build() = %+v, %v; want identity system in n = 1", empty, err)
 	}
 }
@@ -164,25 +180,25 @@ func FuzzBuilder(f *testing.F) {
 			case 5:
 				b.Label("x")
 			case 6:
-				b.Aperture(units.Length(v))
+				b.Aperture(ClearRadius(units.Length(v)))
 			case 7:
 				b.ThickLens(units.Length(v), units.Length(-y), units.Length(math.Abs(v)), y)
 			case 8:
 				b.Plate(units.Length(v), y, units.Angle(x))
 			case 9:
-				b.Mirror(units.Length(v), units.Angle(y))
+				b.ConvexMirror(units.Length(v), units.Angle(y))
 			case 10:
 				b.CylindricalLens(units.Length(v), Plane(ops[i+1]%3))
 			case 11:
 				b.Matrix(Matrix{A: 1, B: v, D: 1}, Matrix{A: 1, C: y, D: 1})
 			case 12:
-				b.Diaphragm(units.Length(v))
+				b.Diaphragm(ClearRadius(units.Length(v)))
 			case 13:
 				if sub, err := NewBuilder().ThinLens(units.Length(v)).Space(units.Length(math.Abs(y))).Build(); err == nil {
 					b.Append(sub)
 				}
 			case 14:
-				b.Space(units.Length(math.Abs(v))).Aperture(units.Length(math.Abs(y)))
+				b.Space(units.Length(math.Abs(v))).Aperture(ClearRadius(units.Length(math.Abs(y))))
 			}
 		}
 		s, err := b.Build()
@@ -193,7 +209,7 @@ func FuzzBuilder(f *testing.F) {
 			return
 		}
 		for _, p := range []Plane{Tangential, Sagittal} {
-			m := s.PlaneMatrix(p)
+			m := s.Matrix(p)
 			if !m.finite() {
 				t.Fatalf("Build() succeeded with a non-finite %v matrix %+v", p, m)
 			}
@@ -213,7 +229,7 @@ func FuzzBuilder(f *testing.F) {
 				t.Fatalf("MatrixBetween error: %v", err)
 			}
 			if c, err := s.Cardinal(p); err == nil {
-				for _, v := range []units.Length{c.EFL, c.FrontFocal, c.RearFocal, c.FrontPrincipal, c.RearNodal} {
+				for _, v := range []units.Length{c.EFL, c.FrontFocalPoint, c.RearFocalPoint, c.FrontPrincipalPlane, c.RearNodalPoint} {
 					if !finite(float64(v)) {
 						t.Fatalf("Cardinal returned non-finite %v: %+v", v, c)
 					}
@@ -222,13 +238,13 @@ func FuzzBuilder(f *testing.F) {
 			if im, err := s.Image(-0.1, p); err == nil && (!finite(float64(im.Image)) || !finite(im.Magnification)) {
 				t.Fatalf("Image returned non-finite %+v", im)
 			}
-			if a, err := s.Apertures(ObjectAt(-0.1), p); err == nil {
+			if a, err := s.Stops(ObjectAt(-0.1), p); err == nil {
 				if !finite(a.ImageNA) || !finite(float64(a.Entrance.Z)) || !finite(float64(a.HalfField.Height)) {
-					t.Fatalf("Apertures returned non-finite %+v", a)
+					t.Fatalf("Stops returned non-finite %+v", a)
 				}
 			}
 		}
-		if _, err := s.MatrixTo(s.Length() / 2); err != nil && err != ErrOverflow {
+		if _, err := s.MatrixTo(s.Length() / 2, Tangential); err != nil && err != ErrOverflow {
 			t.Fatalf("MatrixTo(L/2) error: %v", err)
 		}
 		_ = s.Prescription().Text()

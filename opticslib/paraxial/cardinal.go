@@ -8,7 +8,7 @@ import (
 )
 
 // ErrEmpty is returned by the analyses ([System.Cardinal], [System.Image],
-// [System.Apertures] and friends) for a system without elements.
+// [System.Stops] and friends) for a system without elements.
 var ErrEmpty = errors.New("paraxial: empty system (no elements)")
 
 // ErrAfocal is returned when a result needs optical power and the system
@@ -35,13 +35,17 @@ const AfocalTolerance = 1e-9
 // With the lens matrix L = [[A, B], [C, D]] from the first to the last
 // surface (positions z₁, z₂), det L = n/n', Φ = −n'·C:
 //
-//	EFL  = 1/Φ                 FrontFocal  F  = z₁ + D/C
-//	f    = −n/Φ  (H to F)      RearFocal   F' = z₂ − A/C
-//	f'   = n'/Φ = −1/C (H' to F')
-//	FFL  = z₁ − F = −D/C       FrontPrincipal H  = z₁ + (D − det)/C
-//	BFL  = F' − z₂ = −A/C      RearPrincipal  H' = z₂ + (1 − A)/C
-//	                            FrontNodal N  = z₁ + (D − 1)/C
-//	                            RearNodal  N' = z₂ + (det − A)/C
+//	EFL = 1/Φ                        FrontFocalPoint      F  = z₁ + D/C
+//	ObjectFocalLength f  = −n/Φ      RearFocalPoint       F' = z₂ − A/C
+//	ImageFocalLength  f' = n'/Φ      FrontPrincipalPlane  H  = z₁ + (D − det)/C
+//	FFL = z₁ − F  = −D/C             RearPrincipalPlane   H' = z₂ + (1 − A)/C
+//	BFL = F' − z₂ = −A/C             FrontNodalPoint      N  = z₁ + (D − 1)/C
+//	                                 RearNodalPoint       N' = z₂ + (det − A)/C
+//
+// Three kinds of quantity, three kinds of name: a ...Point or ...Plane is
+// a position z; a ...FocalLength is measured from a principal plane (f
+// from H to F, f' from H' to F'); FFL and BFL, the trade's front and back
+// focal lengths, are measured from the vertices.
 //
 // These follow from tracing the defining rays through L (a ray parallel to
 // the axis, one through the front focus, one of unit angular
@@ -69,19 +73,22 @@ type Cardinal struct {
 	// EFL is the effective focal length 1/Φ (the focal length the system
 	// would have in air).
 	EFL units.Length
-	// FrontFocalLength f = −n/Φ (signed distance H → F) and
-	// RearFocalLength f' = n'/Φ (H' → F').
-	FrontFocalLength, RearFocalLength units.Length
-	// FFL is the front focal distance, from F to the first vertex
-	// (positive when F lies before it); BFL the back focal distance, from
-	// the last vertex to F'.
+	// ObjectFocalLength f = −n/Φ is the signed distance from H to F, and
+	// ImageFocalLength f' = n'/Φ that from H' to F'; they differ from EFL
+	// only in a medium other than air.
+	ObjectFocalLength, ImageFocalLength units.Length
+	// FFL (front focal length) is the distance from F to the first vertex,
+	// positive when F lies before it; BFL (back focal length) the distance
+	// from the last vertex to F'. Both are measured from the glass, as a
+	// catalogue states them.
 	FFL, BFL units.Length
-	// FrontFocal and RearFocal are the positions of F and F'.
-	FrontFocal, RearFocal units.Length
-	// FrontPrincipal and RearPrincipal are the positions of H and H'.
-	FrontPrincipal, RearPrincipal units.Length
-	// FrontNodal and RearNodal are the positions of N and N'.
-	FrontNodal, RearNodal units.Length
+	// FrontFocalPoint and RearFocalPoint are the positions of F and F'.
+	FrontFocalPoint, RearFocalPoint units.Length
+	// FrontPrincipalPlane and RearPrincipalPlane are the positions of H
+	// and H'.
+	FrontPrincipalPlane, RearPrincipalPlane units.Length
+	// FrontNodalPoint and RearNodalPoint are the positions of N and N'.
+	FrontNodalPoint, RearNodalPoint units.Length
 	// AngularMagnification (D) and TransverseMagnification (A) are set
 	// for an afocal system and zero otherwise.
 	AngularMagnification, TransverseMagnification float64
@@ -128,9 +135,13 @@ func (s System) afocal(m Matrix, i, j int, p Plane) bool {
 // diaphragms only is afocal with unit magnifications, its vertices at
 // z = 0.
 //
-// It returns [ErrEmpty] for an empty system and [ErrOverflow] if a
-// position overflows.
+// It returns [ErrNotBuilt] for the zero System, [ErrPlane] for an unknown
+// plane, [ErrEmpty] for an empty system and [ErrOverflow] if a position
+// overflows.
 func (s System) Cardinal(p Plane) (Cardinal, error) {
+	if err := s.check(p); err != nil {
+		return Cardinal{}, err
+	}
 	if len(s.elems) == 0 {
 		return Cardinal{}, ErrEmpty
 	}
@@ -151,17 +162,17 @@ func (s System) Cardinal(p Plane) (Cardinal, error) {
 	inv := 1 / l.C
 	c.Power = -s.nOut * l.C
 	c.EFL = units.Length(1 / c.Power)
-	c.FrontFocalLength = units.Length(det * inv)
-	c.RearFocalLength = units.Length(-inv)
+	c.ObjectFocalLength = units.Length(det * inv)
+	c.ImageFocalLength = units.Length(-inv)
 	c.FFL = units.Length(-l.D * inv)
 	c.BFL = units.Length(-l.A * inv)
-	c.FrontFocal = z1 - c.FFL
-	c.RearFocal = z2 + c.BFL
-	c.FrontPrincipal = z1 + units.Length((l.D-det)*inv)
-	c.RearPrincipal = z2 + units.Length((1-l.A)*inv)
-	c.FrontNodal = z1 + units.Length((l.D-1)*inv)
-	c.RearNodal = z2 + units.Length((det-l.A)*inv)
-	for _, v := range []units.Length{c.EFL, c.FrontFocal, c.RearFocal, c.FrontPrincipal, c.RearPrincipal, c.FrontNodal, c.RearNodal} {
+	c.FrontFocalPoint = z1 - c.FFL
+	c.RearFocalPoint = z2 + c.BFL
+	c.FrontPrincipalPlane = z1 + units.Length((l.D-det)*inv)
+	c.RearPrincipalPlane = z2 + units.Length((1-l.A)*inv)
+	c.FrontNodalPoint = z1 + units.Length((l.D-1)*inv)
+	c.RearNodalPoint = z2 + units.Length((det-l.A)*inv)
+	for _, v := range []units.Length{c.EFL, c.FrontFocalPoint, c.RearFocalPoint, c.FrontPrincipalPlane, c.RearPrincipalPlane, c.FrontNodalPoint, c.RearNodalPoint} {
 		if !finite(float64(v)) {
 			return Cardinal{}, ErrOverflow
 		}

@@ -54,13 +54,16 @@ func xcCurvature(rng *rand.Rand) float64 {
 }
 
 func TestCrossCheckCardinalNumPy(t *testing.T) {
-	// Independent reference: reduced matrices (Gerrard & Burch 1975, ch.
-	// II; Hecht, Optics, 4th ed., §6.2) composed with numpy, and the
+	// Independent reference: reduced matrices (A. Gerrard & J. M. Burch,
+	// Introduction to Matrix Methods in Optics, Wiley 1975, ch. II [from
+	// memory]) composed with numpy, and the
 	// cardinal points found by tracing their defining rays with
 	// numpy.linalg.solve (parallel ray → F', H'; ray leaving parallel → F,
 	// H; unit angular magnification → N, N'), not by the closed formulas
-	// of Cardinal's doc. For a single thick lens in air also Hecht's
-	// closed forms, eqs. (6.2)–(6.4). testdata/crosscheck/paraxial_cardinal.py.
+	// of Cardinal's doc. For a single thick lens in air also the thick-lens
+	// closed forms for power and principal planes (W. J. Smith, Modern
+	// Optical Engineering, 4th ed., McGraw-Hill 2008, ch. 2 [from memory]).
+	// testdata/crosscheck/paraxial_cardinal.py.
 	//
 	// Tolerance: abs 1e-12·s with s = |EFL| + |z₂| + |z₁| for positions and
 	// lengths, rel 1e-12 for the power. Every quantity is a vertex position
@@ -133,26 +136,26 @@ func TestCrossCheckCardinalNumPy(t *testing.T) {
 		cases = append(cases, xcase{NIn: nIn, Elements: els, sys: sys})
 	}
 	type values struct {
-		Power          float64 `json:"power"`
-		EFL            float64 `json:"efl"`
-		FFL            float64 `json:"ffl"`
-		BFL            float64 `json:"bfl"`
-		FrontFocal     float64 `json:"front_focal"`
-		RearFocal      float64 `json:"rear_focal"`
-		FrontPrincipal float64 `json:"front_principal"`
-		RearPrincipal  float64 `json:"rear_principal"`
-		FrontNodal     float64 `json:"front_nodal"`
-		RearNodal      float64 `json:"rear_nodal"`
-		Z1             float64 `json:"z1"`
-		Z2             float64 `json:"z2"`
-		NOut           float64 `json:"n_out"`
-		Hecht          *struct {
-			EFL            float64 `json:"efl"`
-			FrontPrincipal float64 `json:"front_principal"`
-			RearPrincipal  float64 `json:"rear_principal"`
-			BFL            float64 `json:"bfl"`
-			FFL            float64 `json:"ffl"`
-		} `json:"hecht"`
+		Power               float64 `json:"power"`
+		EFL                 float64 `json:"efl"`
+		FFL                 float64 `json:"ffl"`
+		BFL                 float64 `json:"bfl"`
+		FrontFocalPoint     float64 `json:"front_focal"`
+		RearFocalPoint      float64 `json:"rear_focal"`
+		FrontPrincipalPlane float64 `json:"front_principal"`
+		RearPrincipalPlane  float64 `json:"rear_principal"`
+		FrontNodalPoint     float64 `json:"front_nodal"`
+		RearNodalPoint      float64 `json:"rear_nodal"`
+		Z1                  float64 `json:"z1"`
+		Z2                  float64 `json:"z2"`
+		NOut                float64 `json:"n_out"`
+		ClosedForm          *struct {
+			EFL                 float64 `json:"efl"`
+			FrontPrincipalPlane float64 `json:"front_principal"`
+			RearPrincipalPlane  float64 `json:"rear_principal"`
+			BFL                 float64 `json:"bfl"`
+			FFL                 float64 `json:"ffl"`
+		} `json:"thick_lens_closed_form"`
 	}
 	var ref struct {
 		Reference string   `json:"reference"`
@@ -162,8 +165,8 @@ func TestCrossCheckCardinalNumPy(t *testing.T) {
 	if len(ref.Cases) != len(cases) {
 		t.Fatalf("reference returned %d cases, want %d", len(ref.Cases), len(cases))
 	}
-	var maxRel, maxHecht float64
-	nHecht := 0
+	var maxRel, maxClosed float64
+	nClosed := 0
 	for i, test := range cases {
 		r := ref.Cases[i]
 		c, err := test.sys.Cardinal(paraxial.Tangential)
@@ -185,14 +188,14 @@ func TestCrossCheckCardinalNumPy(t *testing.T) {
 			{"EFL", float64(c.EFL), r.EFL},
 			{"FFL", float64(c.FFL), r.FFL},
 			{"BFL", float64(c.BFL), r.BFL},
-			{"FrontFocal", float64(c.FrontFocal), r.FrontFocal},
-			{"RearFocal", float64(c.RearFocal), r.RearFocal},
-			{"FrontPrincipal", float64(c.FrontPrincipal), r.FrontPrincipal},
-			{"RearPrincipal", float64(c.RearPrincipal), r.RearPrincipal},
-			{"FrontNodal", float64(c.FrontNodal), r.FrontNodal},
-			{"RearNodal", float64(c.RearNodal), r.RearNodal},
-			{"RearFocalLength", float64(c.RearFocalLength), r.NOut * r.EFL},      // f' = n'/Φ
-			{"FrontFocalLength", float64(c.FrontFocalLength), -test.NIn * r.EFL}, // f = −n/Φ
+			{"FrontFocal", float64(c.FrontFocalPoint), r.FrontFocalPoint},
+			{"RearFocal", float64(c.RearFocalPoint), r.RearFocalPoint},
+			{"FrontPrincipal", float64(c.FrontPrincipalPlane), r.FrontPrincipalPlane},
+			{"RearPrincipal", float64(c.RearPrincipalPlane), r.RearPrincipalPlane},
+			{"FrontNodal", float64(c.FrontNodalPoint), r.FrontNodalPoint},
+			{"RearNodal", float64(c.RearNodalPoint), r.RearNodalPoint},
+			{"RearFocalLength", float64(c.ImageFocalLength), r.NOut * r.EFL},      // f' = n'/Φ
+			{"FrontFocalLength", float64(c.ObjectFocalLength), -test.NIn * r.EFL}, // f = −n/Φ
 		} {
 			maxRel = math.Max(maxRel, math.Abs(q.got-q.want)/s)
 			if !scalar.EqualWithinAbs(q.got, q.want, tol*s) {
@@ -205,12 +208,12 @@ func TestCrossCheckCardinalNumPy(t *testing.T) {
 		if c.IndexOut != r.NOut {
 			t.Errorf("case %d: Cardinal().IndexOut = %g, want %g", i, c.IndexOut, r.NOut)
 		}
-		if r.Hecht == nil {
+		if r.ClosedForm == nil {
 			continue
 		}
-		// Hecht's closed forms: the same rounding argument and tolerance.
-		nHecht++
-		h := r.Hecht
+		// The thick-lens closed forms: the same rounding argument and tolerance.
+		nClosed++
+		h := r.ClosedForm
 		for _, q := range []struct {
 			name      string
 			got, want float64
@@ -218,15 +221,15 @@ func TestCrossCheckCardinalNumPy(t *testing.T) {
 			{"EFL", float64(c.EFL), h.EFL},
 			{"FFL", float64(c.FFL), h.FFL},
 			{"BFL", float64(c.BFL), h.BFL},
-			{"FrontPrincipal", float64(c.FrontPrincipal), h.FrontPrincipal},
-			{"RearPrincipal", float64(c.RearPrincipal), h.RearPrincipal},
+			{"FrontPrincipal", float64(c.FrontPrincipalPlane), h.FrontPrincipalPlane},
+			{"RearPrincipal", float64(c.RearPrincipalPlane), h.RearPrincipalPlane},
 		} {
-			maxHecht = math.Max(maxHecht, math.Abs(q.got-q.want)/s)
+			maxClosed = math.Max(maxClosed, math.Abs(q.got-q.want)/s)
 			if !scalar.EqualWithinAbs(q.got, q.want, tol*s) {
-				t.Errorf("case %d: Cardinal().%s = %.15g, want %.15g (Hecht eqs. 6.2–6.4)", i, q.name, q.got, q.want)
+				t.Errorf("case %d: Cardinal().%s = %.15g, want %.15g (thick-lens closed forms)", i, q.name, q.got, q.want)
 			}
 		}
 	}
-	t.Logf("%d systems against %s: max |Δ|/s = %.3g (ray trace), %.3g (Hecht closed forms, %d lenses)",
-		len(cases), ref.Reference, maxRel, maxHecht, nHecht)
+	t.Logf("%d systems against %s: max |Δ|/s = %.3g (ray trace), %.3g (thick-lens closed forms, %d lenses)",
+		len(cases), ref.Reference, maxRel, maxClosed, nClosed)
 }

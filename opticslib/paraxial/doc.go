@@ -29,9 +29,17 @@
 //
 // # Order of multiplication
 //
-// Matrices multiply right to left: for elements met in the order M₁, M₂,
-// M₃ the system matrix is M₃·M₂·M₁ (the element met first is rightmost).
-// [Matrix.Then] reads in the order of the light: M₁.Then(M₂).Then(M₃).
+// Each element's matrix acts on the ray that the elements before it have
+// delivered. A system whose N elements the light meets in the order
+// 0, 1, …, N−1 therefore has the matrix
+//
+//	M = M_{N−1} ⋯ M₁ M₀
+//
+// in which the element met first stands rightmost, next to the input ray,
+// and the last one leftmost. [Matrix.Then] builds the same product in the
+// order of the light, since a.Then(b) is b·a:
+//
+//	M₀.Then(M₁).Then(M₂) … .Then(M_{N−1}) == M
 //
 // # Signs
 //

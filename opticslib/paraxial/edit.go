@@ -3,8 +3,11 @@ package paraxial
 import (
 	"errors"
 	"math"
+	"slices"
 	"strconv"
+	"strings"
 
+	"github.com/beamnote/beamnote/opticslib/internal/errtext"
 	"github.com/beamnote/beamnote/opticslib/units"
 )
 
@@ -22,8 +25,9 @@ var ErrIndexChange = errors.New("replacement changes the refractive index at its
 // component geometry and composes the matrices. If a running product or
 // position overflows it returns an [*ElementError] naming the element
 // after which that happened and wrapping [ErrOverflow].
-func assemble(elems []Element, comps []Component, nIn, nOut float64) (System, error) {
+func assemble(elems []Element, comps []Component, nIn, nOut float64, method string) (System, error) {
 	s := System{
+		built:   true,
 		elems:   append([]Element(nil), elems...),
 		comps:   append([]Component(nil), comps...),
 		nIn:     nIn,
@@ -39,7 +43,9 @@ func assemble(elems []Element, comps []Component, nIn, nOut float64) (System, er
 		s.matrixX = s.matrixX.Then(e.X)
 		s.matrixY = s.matrixY.Then(e.Y)
 		if !s.matrixX.finite() || !s.matrixY.finite() || !finite(float64(z)) {
-			return System{}, &ElementError{Index: i, Kind: e.Kind, Err: ErrOverflow}
+			err := elementError(i, *e)
+			err.Reason, err.Err = method+": the running product overflows here", ErrOverflow
+			return System{}, err
 		}
 	}
 	s.length = z
@@ -64,56 +70,166 @@ func surfaceRadius(e Element) units.Length {
 	return Flat
 }
 
-func (s System) checkIndex(i int, op string) {
-	if i < 0 || i >= len(s.elems) {
-		panic("paraxial: " + op + ": element index " + strconv.Itoa(i) + " out of range [0, " + strconv.Itoa(len(s.elems)) + ")")
-	}
+// Part is the run of consecutive elements that carry one label: a lens,
+// the three elements of a thick lens, a labelled space, or a labelled
+// sub-assembly.
+type Part struct {
+	// Label is the label.
+	Label string
+	// First and Last are the indices in [System.Elements] of its first and
+	// last element.
+	First, Last int
+	// Z is the position of its entrance (front vertex) and End that of its
+	// exit, in metres from the input plane; End = Z for a single surface.
+	Z, End units.Length
 }
 
-// WithSpace returns a copy of s in which space element i has length d
-// (metres, ≥ 0, finite); s itself is unchanged. Positions of the later
-// elements move by the difference. Changing the glass space of a thick
-// lens or plate changes its thickness.
+// Part returns the first run of consecutive elements labelled label. It
+// returns an [*ElementError] wrapping [ErrNoLabel], which lists the labels
+// there are, if no element has it, and [ErrNotBuilt] for the zero System.
+// Positions relative to a part need no index arithmetic:
 //
-// It returns an [*ElementError] if element i is not a space or d is
-// invalid, and an [*ElementError] wrapping [ErrOverflow] if the new system
-// overflows. It panics if i is out of range.
-func (s System) WithSpace(i int, d units.Length) (System, error) {
-	s.checkIndex(i, "WithSpace")
-	e := s.elems[i]
-	if e.Kind != KindSpace {
-		return System{}, &ElementError{Index: i, Kind: e.Kind, Op: "WithSpace", Reason: "element " + strconv.Itoa(i) + " is a " + e.Kind.String() + ", not a space"}
+//	l2, err := sys.Part("L2")
+//	g, err := beam.At(sys, in, l2.End+50*units.Millimeter) // 50 mm after L2
+func (s System) Part(label string) (Part, error) {
+	if !s.built {
+		return Part{}, ErrNotBuilt
+	}
+	for k, e := range s.elems {
+		if e.Label != label {
+			continue
+		}
+		j := k
+		for j+1 < len(s.elems) && s.elems[j+1].Label == label {
+			j++
+		}
+		last := s.elems[j]
+		return Part{Label: label, First: k, Last: j, Z: e.Z, End: last.Z + last.Length}, nil
+	}
+	var have []string
+	for _, e := range s.elems {
+		if e.Label != "" && !slices.Contains(have, e.Label) {
+			have = append(have, e.Label)
+		}
+	}
+	reason := "the system has no labels"
+	if len(have) > 0 {
+		q := make([]string, len(have))
+		for i, h := range have {
+			q[i] = errtext.Quote(h)
+		}
+		reason = "labels are " + strings.Join(q, ", ")
+	}
+	return Part{}, &ElementError{Method: "Part", Index: -1, Param: "label", Value: errtext.Quote(label), Reason: reason, Err: ErrNoLabel}
+}
+
+// WithSpace returns a copy of s in which the space labelled label has
+// length d (metres, ≥ 0, finite); s itself is unchanged. Positions of the
+// later elements move by the difference. Label the spaces that are
+// what-if parameters when building:
+//
+//	Space(96 * units.Millimeter).Label("working distance")
+//
+// It returns an [*ElementError] if no element has the label (wrapping
+// [ErrNoLabel]), if the labelled part is not a single space, or if d is
+// invalid, and one wrapping [ErrOverflow] if the new system overflows.
+func (s System) WithSpace(label string, d units.Length) (System, error) {
+	pt, err := s.Part(label)
+	if err != nil {
+		return System{}, err
+	}
+	e := s.elems[pt.First]
+	if pt.First != pt.Last || e.Kind != KindSpace {
+		err := elementError(pt.First, e)
+		err.Reason = "WithSpace: the part is a " + e.Kind.String() + ", not a single space"
+		return System{}, err
 	}
 	if !finite(float64(d)) || d < 0 {
-		return System{}, &ElementError{Index: i, Kind: KindSpace, Param: "length d", Value: float64(d), Length: true, Reason: "must be non-negative and finite"}
+		err := elementError(pt.First, e)
+		err.Param, err.Value, err.Reason = "length d", d, "must be non-negative and finite"
+		return System{}, err
 	}
 	elems := append([]Element(nil), s.elems...)
 	m := Space(d)
-	elems[i].Length, elems[i].X, elems[i].Y = d, m, m
-	return assemble(elems, s.comps, s.nIn, s.nOut)
+	elems[pt.First].Length, elems[pt.First].X, elems[pt.First].Y = d, m, m
+	return assemble(elems, s.comps, s.nIn, s.nOut, "WithSpace")
 }
 
-// Replace returns a copy of s in which elements i to j−1 are replaced by
-// the elements of sub (which may be empty, to delete them, or have any
-// length); s and sub are unchanged. Use it to swap a lens: find the lens
-// with [System.Lookup] and put a sub-system built with a [Builder] in its
-// place. Positions after the range move by the change in length.
+// Move returns a copy of s in which the part labelled label is moved by dz
+// metres along the axis (dz > 0 moves it towards +z) while everything else
+// stays where it was, the end plane included: the space just before the
+// part grows by dz and the space just after it shrinks by dz. s itself is
+// unchanged.
 //
-// It returns an [*ElementError] wrapping [ErrSplitComponent] if [i, j)
-// cuts through a component, and one wrapping [ErrIndexChange] if sub does
-// not start in the medium before element i and end in the medium after
-// element j−1 (relative tolerance 1e-12), and one wrapping [ErrOverflow]
-// if the new system overflows. It panics if 0 ≤ i ≤ j ≤ Len() does not
-// hold.
-func (s System) Replace(i, j int, sub System) (System, error) {
-	if i < 0 || j < i || j > len(s.elems) {
-		panic("paraxial: Replace: range [" + strconv.Itoa(i) + ", " + strconv.Itoa(j) + ") invalid for " + strconv.Itoa(len(s.elems)) + " elements")
+// It returns an [*ElementError] if no element has the label, if the part
+// has no space on one side, if a space would become negative (the part
+// would pass its neighbour), or if dz is not finite.
+func (s System) Move(label string, dz units.Length) (System, error) {
+	pt, err := s.Part(label)
+	if err != nil {
+		return System{}, err
 	}
+	e := s.elems[pt.First]
+	fail := func(param string, v any, reason string) (System, error) {
+		err := elementError(pt.First, e)
+		err.Param, err.Value, err.Reason = param, v, "Move: "+reason
+		return System{}, err
+	}
+	if !finite(float64(dz)) {
+		return fail("shift dz", dz, "must be finite")
+	}
+	before, after := pt.First-1, pt.Last+1
+	if before < 0 || s.elems[before].Kind != KindSpace {
+		return fail("shift dz", dz, "no space before the part to take up the move")
+	}
+	if after >= len(s.elems) || s.elems[after].Kind != KindSpace {
+		return fail("shift dz", dz, "no space after the part to take up the move")
+	}
+	gb, ga := s.elems[before].Length+dz, s.elems[after].Length-dz
+	if gb < 0 || ga < 0 {
+		return fail("shift dz", dz, "leaves a negative gap (space before "+gb.String()+", after "+ga.String()+")")
+	}
+	elems := append([]Element(nil), s.elems...)
+	for _, g := range []struct {
+		i int
+		d units.Length
+	}{{before, gb}, {after, ga}} {
+		m := Space(g.d)
+		elems[g.i].Length, elems[g.i].X, elems[g.i].Y = g.d, m, m
+	}
+	return assemble(elems, s.comps, s.nIn, s.nOut, "Move")
+}
+
+// Replace returns a copy of s in which the part labelled label is replaced
+// by the elements of sub (a system built with a [Builder]; it may be empty
+// to delete the part, or have any length): swap a lens for another from
+// the drawer. s and sub are unchanged. Positions after the part move by
+// the change in length.
+//
+// It returns an [*ElementError] if no element has the label, one wrapping
+// [ErrSplitComponent] if the part cuts through a component, one wrapping
+// [ErrIndexChange] if sub does not start in the medium before the part and
+// end in the medium after it (relative tolerance 1e-12), and one wrapping
+// [ErrOverflow] if the new system overflows.
+func (s System) Replace(label string, sub System) (System, error) {
+	pt, err := s.Part(label)
+	if err != nil {
+		return System{}, err
+	}
+	if !sub.built {
+		return System{}, &ElementError{Method: "Replace", Label: label, Index: pt.First, Param: "replacement", Err: ErrNotBuilt}
+	}
+	return s.replace(pt.First, pt.Last+1, sub)
+}
+
+func (s System) replace(i, j int, sub System) (System, error) {
 	for _, c := range s.comps {
 		inside := c.First >= i && c.Last < j
 		outside := c.Last < i || c.First >= j
 		if !inside && !outside {
-			return System{}, &ElementError{Index: c.First, Kind: c.Kind, Op: "Replace", Err: ErrSplitComponent}
+			err := elementError(c.First, s.elems[c.First])
+			err.Reason, err.Err = "Replace", ErrSplitComponent
+			return System{}, err
 		}
 	}
 	before, after := s.nIn, s.nOut
@@ -131,10 +247,14 @@ func (s System) Replace(i, j int, sub System) (System, error) {
 		subIn, subOut = before, before
 	}
 	if !same(subIn, before) {
-		return System{}, &ElementError{Index: i, Kind: kindAt(s, i), Op: "Replace", Param: "replacement input index", Value: subIn, Reason: "medium there has n = " + strconv.FormatFloat(before, 'g', -1, 64), Err: ErrIndexChange}
+		err := elementError(i, s.elems[min(i, len(s.elems)-1)])
+		err.Param, err.Value, err.Reason, err.Err = "replacement input index", subIn, "Replace: the medium there has n = "+strconv.FormatFloat(before, 'g', -1, 64), ErrIndexChange
+		return System{}, err
 	}
 	if j < len(s.elems) && !same(subOut, after) {
-		return System{}, &ElementError{Index: j, Kind: kindAt(s, j), Op: "Replace", Param: "replacement output index", Value: subOut, Reason: "medium there has n = " + strconv.FormatFloat(after, 'g', -1, 64), Err: ErrIndexChange}
+		err := elementError(j, s.elems[j])
+		err.Param, err.Value, err.Reason, err.Err = "replacement output index", subOut, "Replace: the medium there has n = "+strconv.FormatFloat(after, 'g', -1, 64), ErrIndexChange
+		return System{}, err
 	}
 	nOut := s.nOut
 	if j == len(s.elems) {
@@ -167,31 +287,7 @@ func (s System) Replace(i, j int, sub System) (System, error) {
 	if i == 0 && len(elems) > 0 {
 		nIn = elems[0].IndexIn
 	}
-	return assemble(elems, comps, nIn, nOut)
-}
-
-func kindAt(s System, i int) Kind {
-	if i < len(s.elems) {
-		return s.elems[i].Kind
-	}
-	return KindSpace
-}
-
-// Lookup returns the range [i, j) of the first run of consecutive
-// elements labelled name (all three elements of a labelled thick lens, for
-// example), and ok = false if no element has that label.
-func (s System) Lookup(name string) (i, j int, ok bool) {
-	for k, e := range s.elems {
-		if e.Label != name {
-			continue
-		}
-		j = k + 1
-		for j < len(s.elems) && s.elems[j].Label == name {
-			j++
-		}
-		return k, j, true
-	}
-	return 0, 0, false
+	return assemble(elems, comps, nIn, nOut, "Replace")
 }
 
 // Reverse returns the system traversed backwards: light enters at the old
@@ -209,6 +305,9 @@ func (s System) Lookup(name string) (i, j int, ok bool) {
 // product overflows, which for a system that built without overflow can
 // happen only at the edge of the float64 range.
 func (s System) Reverse() (System, error) {
+	if !s.built {
+		return System{}, ErrNotBuilt
+	}
 	n := len(s.elems)
 	elems := make([]Element, n)
 	for k, e := range s.elems {
@@ -231,5 +330,5 @@ func (s System) Reverse() (System, error) {
 		c.First, c.Last = n-1-c.Last, n-1-c.First
 		comps[len(s.comps)-1-k] = c
 	}
-	return assemble(elems, comps, s.nOut, s.nIn)
+	return assemble(elems, comps, s.nOut, s.nIn, "Reverse")
 }

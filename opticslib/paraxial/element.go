@@ -3,6 +3,7 @@ package paraxial
 import (
 	"strconv"
 
+	"github.com/beamnote/beamnote/opticslib/internal/errtext"
 	"github.com/beamnote/beamnote/opticslib/units"
 )
 
@@ -90,10 +91,10 @@ func (k Kind) String() string {
 // plates; the sagittal plane (Y) is perpendicular to it. For a
 // rotationally symmetric system they coincide.
 //
-// Only the two constants below are valid. The builder rejects other values
-// (Builder.CylindricalLens returns an error); the analyses and matrix
-// accessors, which cannot fail on this account, read any value other than
-// Sagittal as Tangential.
+// Only the two constants below are valid. The builder and the analyses
+// reject other values with an error wrapping [ErrPlane]; the accessors
+// that cannot return an error ([System.Matrix], [Element.Matrix]) panic on
+// them, as on any other programming error.
 type Plane int
 
 // The two planes.
@@ -113,6 +114,15 @@ func (p Plane) String() string {
 		return "sagittal"
 	}
 	return "Plane(" + strconv.Itoa(int(p)) + ")"
+}
+
+func (p Plane) valid() bool { return p == Tangential || p == Sagittal }
+
+// mustPlane panics on a Plane value other than the two constants.
+func mustPlane(p Plane) {
+	if !p.valid() {
+		panic("paraxial: " + p.String() + " is neither Tangential nor Sagittal")
+	}
 }
 
 // Element is one member of a [System]: a gap or a zero-thickness surface,
@@ -155,11 +165,19 @@ type Element struct {
 	// Plane is the plane in which a cylindrical lens has power; zero
 	// (Tangential) for other kinds.
 	Plane Plane
-	// Aperture is the clear-aperture radius in metres; zero means
-	// unlimited. It is set by [Builder.Aperture]. The matrices do not
-	// clip rays; [System.Trace] flags rays beyond it and
-	// [System.Apertures] uses it to find the stop.
-	Aperture units.Length
+	// Aperture is the clear aperture (the zero value is unlimited), a
+	// shape on the part's own surface, set by [Builder.Aperture] or
+	// [Builder.Diaphragm]. On a space it is a tube checked along the whole
+	// gap. The matrices do not clip rays; [System.Trace] flags rays beyond
+	// it, [System.Stops] uses it to find the stop, and beam.Clipping
+	// computes the power it passes.
+	Aperture Opening
+	// Call is the number of the [Builder] call that added the element,
+	// counted from 1, and Method the name of that call ("ThickLens"); the
+	// three elements of a thick lens share one call. Error messages name
+	// elements by call and label, never by element index.
+	Call   int
+	Method string
 	// IndexIn and IndexOut are the refractive indices before and after
 	// the element; they are equal for every kind except interfaces.
 	IndexIn, IndexOut float64
@@ -173,13 +191,53 @@ type Element struct {
 // [KindSpace]).
 func (e Element) IsSurface() bool { return e.Kind != KindSpace }
 
-// matrix returns the element matrix in plane p.
+// Matrix returns the element's transfer matrix in plane p (X for
+// Tangential, Y for Sagittal). It panics if p is not one of the two
+// planes.
+func (e Element) Matrix(p Plane) Matrix {
+	mustPlane(p)
+	return e.matrix(p)
+}
+
+// matrix returns the element matrix in plane p, reading any value other
+// than Sagittal as Tangential (callers have validated p).
 func (e Element) matrix(p Plane) Matrix {
 	if p == Sagittal {
 		return e.Y
 	}
 	return e.X
 }
+
+// Name returns how messages and tables refer to e: its label in quotes
+// and the builder call, for example `ThickLens "L2" (call 4)`, or the
+// call alone, `Space (call 5)`, when it has no label.
+func (e Element) Name() string {
+	return callName(e.Method, e.Label, e.Call, e.Kind)
+}
+
+// callName is the subject of a message about builder call n of method m
+// with label l; kind k stands in for a method of elements not made by a
+// builder call.
+func callName(m, l string, n int, k Kind) string {
+	s := m
+	if s == "" {
+		s = k.String()
+	}
+	if l != "" {
+		s += " " + errtext.Quote(l)
+	}
+	if n > 0 {
+		s += " (call " + strconv.Itoa(n) + ")"
+	}
+	return s
+}
+
+// Concave reports whether e is a concave (converging) mirror: a mirror
+// with positive focal length.
+func (e Element) Concave() bool { return e.Kind == KindMirror && e.Focal > 0 }
+
+// Convex reports whether e is a convex (diverging) mirror.
+func (e Element) Convex() bool { return e.Kind == KindMirror && e.Focal < 0 }
 
 // Component is a group of consecutive elements added by one builder call
 // that form one physical part: a thick lens or a plate. It is described by
@@ -206,7 +264,6 @@ type Component struct {
 	Index float64
 	// Tilt is the angle of incidence on a tilted plate, in radians.
 	Tilt units.Angle
-	// Aperture is the clear-aperture radius of the front surface in
-	// metres; zero means unlimited.
-	Aperture units.Length
+	// Aperture is the clear aperture of the front surface.
+	Aperture Opening
 }

@@ -2,10 +2,8 @@ package paraxial
 
 import (
 	"errors"
-	"strconv"
-	"strings"
 
-	"github.com/beamnote/beamnote/opticslib/units"
+	"github.com/beamnote/beamnote/opticslib/internal/errtext"
 )
 
 // ErrNoElement is returned (wrapped in an [*ElementError]) by
@@ -18,51 +16,65 @@ var ErrNoElement = errors.New("no element to modify")
 // inside a system needs an interface.
 var ErrMediumAfterElements = errors.New("medium can only be set before the first element; use an interface to change index")
 
-// ElementError reports an invalid parameter of one element given to a
-// [Builder]. Its message has the form
+// ErrNotBuilt is returned by the analyses, the edits and the beam
+// functions for the zero [System] value, which no [Builder.Build] made
+// (typically the System returned beside a Build error that was not
+// checked).
+var ErrNotBuilt = errors.New("paraxial: system not built (the zero System value); use Builder.Build and check its error")
+
+// ErrPlane is returned (wrapped in an [*ElementError] by the builder) for a
+// [Plane] value other than Tangential and Sagittal.
+var ErrPlane = errors.New("paraxial: plane must be Tangential or Sagittal")
+
+// ErrNoLabel is returned (wrapped in an [*ElementError]) by the edits and
+// lookups by label when no element carries the label.
+var ErrNoLabel = errors.New("no element has this label")
+
+// ElementError reports an invalid parameter of one builder call, or an
+// edit or analysis that cannot be done on one part of a system. Its
+// message names the builder call and its label, the parameter and the
+// value with its unit:
 //
-//	paraxial: element 3 (thin lens): focal length f = 0 m: must be nonzero and finite
+//	paraxial: ThickLens "L2" (call 4): front radius R1 = 0 m: must be nonzero and not NaN (use paraxial.Flat for a flat side)
+//	paraxial: ConcaveMirror "M1" (call 6): angle of incidence θ = 95° (1.65806 rad): must be finite with |θ| < 90°
 //
-// Index is the 0-based element number (the number the element would have
-// had if it had been accepted); Kind its type; Param the parameter name with
-// its symbol; Value the rejected value in SI units (metres for lengths);
-// Reason what is required. Err, when not nil, is a sentinel such as
-// [ErrNoElement] and is returned by Unwrap.
+// Test for the sentinels it wraps with errors.Is.
 type ElementError struct {
-	Index  int
-	Kind   Kind
-	Op     string // builder method, used when the error is not about an element parameter
+	// Method is the [Builder] method of the call ("ThickLens"), or the
+	// [System] method of an edit or analysis ("Move", "Stops").
+	Method string
+	// Call is the number of the builder call, counted from 1; 0 when the
+	// error is not about one call.
+	Call int
+	// Label is the label of the part, or "".
+	Label string
+	// Index is the index in [System.Elements] of the (first) element
+	// concerned, or the index it would have had; −1 if none. Messages do
+	// not print it (a thick lens is three elements).
+	Index int
+	// Kind is the kind of the element or component.
+	Kind Kind
+	// Param names the parameter with its symbol, Value is the rejected
+	// value in SI units as a units.Length, units.Angle, float64 or int
+	// (printed with its unit), Reason what is required.
 	Param  string
-	Value  float64
-	Length bool // Value is a length in metres, printed with units.Length
+	Value  any
 	Reason string
-	Err    error
+	// Err is a wrapped sentinel such as [ErrNoElement] or [ErrOverflow],
+	// or nil.
+	Err error
 }
 
 // Error implements the error interface.
 func (e *ElementError) Error() string {
-	s := "paraxial: element " + strconv.Itoa(e.Index)
-	if e.Op != "" {
-		s = "paraxial: " + e.Op + " at element " + strconv.Itoa(e.Index)
-	} else {
-		s += " (" + e.Kind.String() + ")"
-	}
-	if e.Param != "" {
-		s += ": " + e.Param + " = "
-		if e.Length {
-			s += units.Length(e.Value).String()
-		} else {
-			s += strconv.FormatFloat(e.Value, 'g', -1, 64)
-		}
-	}
-	if e.Reason != "" {
-		s += ": " + e.Reason
-	}
-	if e.Err != nil {
-		s += ": " + strings.TrimPrefix(e.Err.Error(), "paraxial: ")
-	}
-	return s
+	return errtext.Message("paraxial", callName(e.Method, e.Label, e.Call, e.Kind), e.Param, e.Value, e.Reason, e.Err)
 }
 
 // Unwrap returns e.Err.
 func (e *ElementError) Unwrap() error { return e.Err }
+
+// elementError returns an error about element i (e) of a built system;
+// the caller fills in Param, Value, Reason or Err.
+func elementError(i int, e Element) *ElementError {
+	return &ElementError{Method: e.Method, Call: e.Call, Label: e.Label, Index: i, Kind: e.Kind}
+}

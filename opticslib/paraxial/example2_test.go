@@ -2,7 +2,10 @@ package paraxial_test
 
 // Examples of the analyses. The printed values are regression outputs; the
 // same quantities are checked against outside references in
-// reference_test.go (for instance the R30 equi-biconvex lens, Hecht §6.2).
+// reference_test.go (for instance the R30 equi-biconvex lens of
+// ExampleSystem_Cardinal, against the thick-lens formulas of W. J. Smith,
+// Modern Optical Engineering, 4th ed., McGraw-Hill 2008, ch. 2 [from
+// memory]).
 
 import (
 	"fmt"
@@ -30,8 +33,8 @@ func ExampleSystem_Cardinal() {
 		return
 	}
 	fmt.Printf("EFL %.6f mm, BFL %.6f mm, FFL %.6f mm\n", c.EFL.Millimeters(), c.BFL.Millimeters(), c.FFL.Millimeters())
-	fmt.Printf("H at z = %.6f mm, H' at z = %.6f mm\n", c.FrontPrincipal.Millimeters(), c.RearPrincipal.Millimeters())
-	fmt.Printf("F' at z = %.6f mm\n", c.RearFocal.Millimeters())
+	fmt.Printf("H at z = %.6f mm, H' at z = %.6f mm\n", c.FrontPrincipalPlane.Millimeters(), c.RearPrincipalPlane.Millimeters())
+	fmt.Printf("F' at z = %.6f mm\n", c.RearFocalPoint.Millimeters())
 	// Output:
 	// EFL 49.212999 mm, BFL 47.536227 mm, FFL 47.536227 mm
 	// H at z = 21.676772 mm, H' at z = 23.323228 mm
@@ -60,41 +63,43 @@ func ExampleSystem_Image() {
 	// object at z = -133.333 mm, image at z = 400.0 mm
 }
 
-func ExampleSystem_Apertures() {
+func ExampleSystem_Stops() {
 	const mm = units.Millimeter
-	// A camera lens f = 50 mm with an iris 10 mm in front of it and a
-	// 4 mm-radius sensor mask in the focal plane, object at infinity.
+	// A camera lens f = 50 mm (a 1-inch singlet) with an 8 mm iris 10 mm
+	// in front of it and an 8 mm-wide sensor mask in the focal plane,
+	// object at infinity.
 	sys, _ := paraxial.NewBuilder().
-		Space(10 * mm).Diaphragm(4 * mm).Label("iris").
-		Space(10 * mm).ThinLens(50 * mm).Aperture(12 * mm).
-		Space(50 * mm).Diaphragm(4 * mm).Label("sensor").
+		Space(10 * mm).Diaphragm(paraxial.ClearDiameter(8 * mm)).Label("iris").
+		Space(10 * mm).ThinLens(50 * mm).Aperture(paraxial.ClearDiameter(24 * mm)).
+		Space(50 * mm).Diaphragm(paraxial.ClearDiameter(8 * mm)).Label("sensor").
 		Build()
-	a, err := sys.Apertures(paraxial.ObjectAtInfinity(), paraxial.Tangential)
+	a, err := sys.Stops(paraxial.ObjectAtInfinity(), paraxial.Tangential)
 	if err != nil {
 		fmt.Println(err)
 		return
 	}
-	fmt.Printf("stop: element %d, entrance pupil z = %.1f mm, radius %.2f mm\n", a.Stop, a.Entrance.Z.Millimeters(), a.Entrance.Radius.Millimeters())
+	fmt.Printf("stop: %s, entrance pupil z = %.1f mm, radius %.2f mm\n", a.StopName, a.Entrance.Z.Millimeters(), a.Entrance.Radius.Millimeters())
 	fmt.Printf("f-number %.2f, image NA %.3f\n", a.FNumber, a.ImageNA)
-	fmt.Printf("field stop: element %d, half field %.3f°\n", a.FieldStop, a.HalfField.Angle.Degrees())
+	fmt.Printf("field stop: %s, half field %.3f°\n", a.FieldStopName, a.HalfField.Angle.Degrees())
 	// Output:
-	// stop: element 1, entrance pupil z = 10.0 mm, radius 4.00 mm
+	// stop: Diaphragm "iris" (call 2), entrance pupil z = 10.0 mm, radius 4.00 mm
 	// f-number 6.25, image NA 0.080
-	// field stop: element 5, half field 4.584°
+	// field stop: Diaphragm "sensor" (call 6), half field 4.584°
 }
 
 func ExampleSystem_WithSpace() {
 	const mm = units.Millimeter
 	// What if the object-to-lens spacing grows from 150 mm to 160 mm?
-	sys, _ := paraxial.NewBuilder().Space(150 * mm).ThinLens(100 * mm).Label("L").Space(300 * mm).Build()
-	alt, err := sys.WithSpace(0, 160*mm)
+	sys, _ := paraxial.NewBuilder().Space(150 * mm).Label("object to lens").ThinLens(100 * mm).Label("L").Space(300 * mm).Build()
+	alt, err := sys.WithSpace("object to lens", 160*mm)
 	if err != nil {
 		fmt.Println(err)
 		return
 	}
 	for _, s := range []paraxial.System{sys, alt} {
 		c, _ := s.Image(0, paraxial.Tangential)
-		fmt.Printf("lens at %v: image at z = %.2f mm, m = %.3f\n", s.Element(1).Z, c.Image.Millimeters(), c.Magnification)
+		l, _ := s.Part("L")
+		fmt.Printf("lens at %v: image at z = %.2f mm, m = %.3f\n", l.Z, c.Image.Millimeters(), c.Magnification)
 	}
 	// Output:
 	// lens at 150 mm: image at z = 450.00 mm, m = -2.000
@@ -112,11 +117,36 @@ func ExampleBuilder_Append() {
 	// afocal true, transverse magnification 4.000, 7 elements
 }
 
-func ExampleBuilder_Mirror() {
+func ExampleSystem_Move() {
 	const mm = units.Millimeter
-	// A concave mirror of radius 200 mm folding the beam at 10° incidence:
-	// the tangential and sagittal foci split.
-	sys, _ := paraxial.NewBuilder().Mirror(-200*mm, 10*units.Degree).Space(100 * mm).Build()
+	// Slide L2 of a relay 2 mm towards L1 on the rail; the camera at the
+	// end stays put. The object sits in the front focal plane of L1, so
+	// the light between the lenses is collimated and the image moves with
+	// L2, 2 mm in front of the camera.
+	sys, _ := paraxial.NewBuilder().
+		Space(100 * mm).ThinLens(100 * mm).Label("L1").
+		Space(150 * mm).ThinLens(50 * mm).Label("L2").
+		Space(50 * mm).Build()
+	moved, err := sys.Move("L2", -2*mm)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for _, s := range []paraxial.System{sys, moved} {
+		l2, _ := s.Part("L2")
+		c, _ := s.Image(0, paraxial.Tangential)
+		fmt.Printf("L2 at %v, camera at %v: image %.3f mm after the camera\n", l2.Z, s.Length(), (c.Image - s.Length()).Millimeters())
+	}
+	// Output:
+	// L2 at 250 mm, camera at 300 mm: image 0.000 mm after the camera
+	// L2 at 248 mm, camera at 300 mm: image -2.000 mm after the camera
+}
+
+func ExampleBuilder_ConcaveMirror() {
+	const mm = units.Millimeter
+	// A concave mirror whose box says R = 200 mm, folding the beam at 10°
+	// incidence: the tangential and sagittal foci split.
+	sys, _ := paraxial.NewBuilder().ConcaveMirror(200*mm, 10*units.Degree).Space(100 * mm).Build()
 	t, _ := sys.Cardinal(paraxial.Tangential)
 	s, _ := sys.Cardinal(paraxial.Sagittal)
 	fmt.Printf("f_t = %.3f mm, f_s = %.3f mm\n", t.EFL.Millimeters(), s.EFL.Millimeters())
@@ -128,19 +158,19 @@ func ExampleSystem_Prescription() {
 	const mm = units.Millimeter
 	sys, _ := paraxial.NewBuilder().
 		Space(5*mm).
-		ThickLens(25*mm, paraxial.Flat, 3*mm, 1.5).Label("PCX").Aperture(6 * mm).
+		ThickLens(25*mm, paraxial.Flat, 3*mm, 1.5).Label("PCX").Aperture(paraxial.ClearDiameter(12 * mm)).
 		Space(45 * mm).
 		Build()
 	fmt.Print(sys.Prescription().Text())
 	// Output:
 	// Prescription
-	// #  element                           label  z (mm)  length (mm)  R / f (mm)  n after  tilt (°)  clear radius (mm)
-	// -  --------------------------------  -----  ------  -----------  ----------  -------  --------  -----------------
-	// 0  space                                    0.000   5.000                    1.0000
-	// 1  spherical interface (thick lens)  PCX    5.000                R 25.000    1.5000             6.000
-	// 2  space (thick lens)                PCX    5.000   3.000                    1.5000
-	// 3  planar interface (thick lens)     PCX    8.000                flat        1.0000             6.000
-	// 4  space                                    8.000   45.000                   1.0000
+	// call         element                           label  z (mm)  length (mm)  R / f (mm)  n after  tilt (°)  clear aperture (mm)
+	// -----------  --------------------------------  -----  ------  -----------  ----------  -------  --------  -------------------
+	// 1 Space      space                                    0.000   5.000                    1.0000
+	// 2 ThickLens  spherical interface (thick lens)  PCX    5.000                R 25.000    1.5000             ⌀ 12.000
+	// 2 ThickLens  space (thick lens)                PCX    5.000   3.000                    1.5000
+	// 2 ThickLens  planar interface (thick lens)     PCX    8.000                flat        1.0000             ⌀ 12.000
+	// 3 Space      space                                    8.000   45.000                   1.0000
 }
 
 func ExampleSystem_Fan() {
@@ -148,8 +178,8 @@ func ExampleSystem_Fan() {
 	// A ray fan from an object point 2 mm off axis, 200 mm before a
 	// 100 mm lens of clear radius 10 mm: every ray meets again in the
 	// image plane at 2f, at −2 mm (magnification −1).
-	sys, _ := paraxial.NewBuilder().ThinLens(100 * mm).Aperture(10 * mm).Space(200 * mm).Build()
-	a, err := sys.Apertures(paraxial.ObjectAt(-200*mm), paraxial.Tangential)
+	sys, _ := paraxial.NewBuilder().ThinLens(100 * mm).Aperture(paraxial.ClearRadius(10 * mm)).Space(200 * mm).Build()
+	a, err := sys.Stops(paraxial.ObjectAt(-200*mm), paraxial.Tangential)
 	if err != nil {
 		fmt.Println(err)
 		return

@@ -38,7 +38,7 @@ type Conjugate struct {
 // objectMatrix returns the matrix from the object plane z (in object
 // space) to the output plane: Space(−z) followed by the system.
 func (s System) objectMatrix(z units.Length, p Plane) Matrix {
-	return Space(-z).Then(s.PlaneMatrix(p))
+	return Space(-z).Then(s.Matrix(p))
 }
 
 // Image returns the image of the object plane at axial position object
@@ -53,18 +53,21 @@ func (s System) objectMatrix(z units.Length, p Plane) Matrix {
 // ch. II [from memory]; reference-checks R31). Images and objects may be
 // virtual; see [Conjugate].
 //
-// It returns [ErrEmpty] for an empty system, [ErrNonFinite] for a
+// It returns [ErrNotBuilt], [ErrPlane], [ErrEmpty] for an empty system, [ErrNonFinite] for a
 // non-finite object, [ErrImageAtInfinity] when |D| ≤ 1e-12·(|D_sys| +
 // |C·object|) (cancellation to rounding level), and [ErrOverflow] if the
 // result is not finite.
 func (s System) Image(object units.Length, p Plane) (Conjugate, error) {
+	if err := s.check(p); err != nil {
+		return Conjugate{}, err
+	}
 	if len(s.elems) == 0 {
 		return Conjugate{}, ErrEmpty
 	}
 	if !finite(float64(object)) {
 		return Conjugate{}, ErrNonFinite
 	}
-	m := s.PlaneMatrix(p)
+	m := s.Matrix(p)
 	pm := s.objectMatrix(object, p)
 	if math.Abs(pm.D) <= 1e-12*(math.Abs(m.D)+math.Abs(m.C*float64(object))) {
 		return Conjugate{Object: object}, ErrImageAtInfinity
@@ -98,13 +101,16 @@ func (s System) Image(object units.Length, p Plane) (Conjugate, error) {
 // afocal system (whose magnification is the same for every object), and
 // the errors of [System.Image].
 func (s System) ObjectFor(m float64, p Plane) (Conjugate, error) {
+	if err := s.check(p); err != nil {
+		return Conjugate{}, err
+	}
 	if len(s.elems) == 0 {
 		return Conjugate{}, ErrEmpty
 	}
 	if !finite(m) || m == 0 {
 		return Conjugate{}, ErrMagnification
 	}
-	sm := s.PlaneMatrix(p)
+	sm := s.Matrix(p)
 	if s.afocal(sm, 0, len(s.elems), p) {
 		return Conjugate{}, ErrAfocal
 	}

@@ -14,7 +14,8 @@ import (
 //
 // B is in metres and C in 1/m; A and D are dimensionless. Angles are
 // un-reduced, so det M = n_in/n_out. (Kogelnik & Li, "Laser beams and
-// resonators", Appl. Opt. 5, 1550 (1966), table I, use the same form.)
+// resonators", Appl. Opt. 5, 1550 (1966), table I [from memory], use the
+// same form.)
 //
 // The zero value is the zero matrix, not the identity; use [Identity].
 type Matrix struct {
@@ -93,7 +94,7 @@ func Space(d units.Length) Matrix {
 //	⎣−1/f  1⎦
 //
 // f > 0 converges. Special cases: ThinLens(±Inf) is the identity;
-// ThinLens(0) has C = ∓Inf. (Kogelnik & Li 1966, table I.)
+// ThinLens(0) has C = ∓Inf. (Kogelnik & Li 1966, table I [from memory].)
 func ThinLens(f units.Length) Matrix {
 	return Matrix{A: 1, C: -1 / float64(f), D: 1}
 }
@@ -107,8 +108,10 @@ func ThinLens(f units.Length) Matrix {
 //	⎣(n1−n2)/(n2·r)    n1/n2  ⎦
 //
 // Its determinant is n1/n2 and its rear focal length is n2·r/(n2−n1).
-// (E. Hecht, Optics, 4th ed., §6.2 [section from memory]; derived from the
-// paraxial Snell law n1(θ1 + y/r) = n2(θ2 + y/r).)
+// (F. L. Pedrotti, L. S. Pedrotti & L. M. Pedrotti, Introduction to
+// Optics, 3rd ed., Pearson 2007, ch. 18 [from memory], which uses the same
+// un-reduced form; derived from the paraxial Snell law
+// n1(θ1 + y/r) = n2(θ2 + y/r).)
 //
 // Special cases: r = ±Inf gives [PlanarInterface]; r = 0 gives an infinite C.
 func SphericalInterface(r units.Length, n1, n2 float64) Matrix {
@@ -197,9 +200,10 @@ func MatrixFromReduced(r Matrix, nIn, nOut float64) Matrix {
 //
 //	SphericalInterface(r1, n0, n).Then(Space(t)).Then(SphericalInterface(r2, n, n0))
 //
-// A radius of [Flat] gives a plane surface. Its power −n0·C is the
-// thick-lens lensmaker value (n−n0)/n0·[1/r1 − 1/r2 + (n−n0)t/(n r1 r2)]
-// (E. Hecht, Optics, 4th ed., §6.2 [from memory]).
+// A radius of [Flat] gives a plane surface. Its power −n0·C is
+// (n−n0)·[1/r1 − 1/r2 + (n−n0)t/(n r1 r2)], which for n0 = 1 is the
+// thick-lens lensmaker formula (W. J. Smith, Modern Optical Engineering,
+// 4th ed., McGraw-Hill 2008, ch. 2 [from memory]).
 func ThickLens(r1, r2, t units.Length, n, n0 float64) Matrix {
 	return SphericalInterface(r1, n0, n).Then(Space(t)).Then(SphericalInterface(r2, n, n0))
 }
@@ -214,9 +218,9 @@ func ThickLens(r1, r2, t units.Length, n, n0 float64) Matrix {
 //	            ⎣2/(r·cos θ) 1⎦              ⎣2·cos θ/r   1⎦
 //
 // At normal incidence this is a lens of focal length f = −r/2 (H. Kogelnik
-// & T. Li, Appl. Opt. 5, 1550 (1966), table I, with their R = −r); off
-// axis the focal length is f·cos θ in the plane of incidence and f/cos θ
-// perpendicular to it (H. Kogelnik, E. P. Ippen, A. Dienes & C. V. Shank,
+// & T. Li, Appl. Opt. 5, 1550 (1966), table I [from memory], with their
+// R = −r); off axis the focal length is f·cos θ in the plane of incidence
+// and f/cos θ perpendicular to it (H. Kogelnik, E. P. Ippen, A. Dienes & C. V. Shank,
 // IEEE J. Quantum Electron. QE-8, 373 (1972) [from memory]). Heights
 // keep their sign across the fold.
 func Mirror(r units.Length, aoi units.Angle) (tangential, sagittal Matrix) {
@@ -264,7 +268,8 @@ func TiltedPlanarInterface(n1, n2 float64, aoi units.Angle) (tangential, sagitta
 //	Δ = t (1 − n0/n)
 //
 // An image formed through the plate moves away by Δ (reference-checks R32;
-// Hecht, Optics, §5.2 [from memory]).
+// for n0 = 1, W. J. Smith, Modern Optical Engineering, 4th ed., McGraw-Hill
+// 2008, ch. 4 [from memory]).
 func PlateShift(t units.Length, n, n0 float64) units.Length {
 	return t * units.Length(1-n0/n)
 }

@@ -141,7 +141,7 @@ func TestDetProperty(t *testing.T) {
 		n := 1 + rng.IntN(20)
 		b, prod := randomBuilder(rng, n)
 		s := mustBuild(t, b)
-		m := s.Matrix()
+		m := s.Matrix(Tangential)
 		scale := math.Abs(m.A*m.D) + math.Abs(m.B*m.C)
 		abs := 4 * float64(n) * 0x1p-52 * scale
 		if got := m.Det(); !scalar.EqualWithinAbsOrRel(got, prod, abs, 1e-13) {
@@ -185,10 +185,10 @@ func TestMatrixTo(t *testing.T) {
 		{130 * mm, front, 1.5},
 		{132 * mm, front.Then(Space(2 * mm)), 1.5},
 		{135 * mm, back, 1},
-		{205 * mm, s.Matrix(), 1},
-		{215 * mm, s.Matrix().Then(Space(10 * mm)), 1},
+		{205 * mm, s.Matrix(Tangential), 1},
+		{215 * mm, s.Matrix(Tangential).Then(Space(10 * mm)), 1},
 	} {
-		got, err := s.MatrixTo(test.z)
+		got, err := s.MatrixTo(test.z, Tangential)
 		if err != nil {
 			t.Errorf("MatrixTo(%v) error: %v", test.z, err)
 			continue
@@ -201,7 +201,7 @@ func TestMatrixTo(t *testing.T) {
 		}
 	}
 	for _, z := range []float64{math.NaN(), math.Inf(1), math.Inf(-1)} {
-		if _, err := s.MatrixTo(units.Length(z)); err != ErrNonFinite {
+		if _, err := s.MatrixTo(units.Length(z), Tangential); err != ErrNonFinite {
 			t.Errorf("MatrixTo(%g) error = %v, want ErrNonFinite", z, err)
 		}
 	}
@@ -217,8 +217,8 @@ func TestMatrixTo(t *testing.T) {
 	if s.Element(1).Label != "L1" {
 		t.Errorf("Elements() returned an alias of the system's elements")
 	}
-	if s.MatrixY() != s.Matrix() {
-		t.Errorf("MatrixY() = %+v, want Matrix() = %+v for symmetric elements", s.MatrixY(), s.Matrix())
+	if s.Matrix(Sagittal) != s.Matrix(Tangential) {
+		t.Errorf("MatrixY() = %+v, want Matrix() = %+v for symmetric elements", s.Matrix(Sagittal), s.Matrix(Tangential))
 	}
 }
 

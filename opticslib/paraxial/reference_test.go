@@ -57,16 +57,17 @@ func TestCardinalSingleSurfaceR27(t *testing.T) {
 	c := cardinal(t, s, paraxial.Tangential)
 	v := 20 * mm // vertex position
 	checkAll(t, "R27", abs, rel, []check{
-		{"det", s.Matrix().Det(), f.Det},
-		{"RearFocalLength", float64(c.RearFocalLength), float64(f.RearFocal)},
-		{"FrontFocalLength", float64(c.FrontFocalLength), float64(f.FrontFocal)},
-		{"RearFocal", float64(c.RearFocal), float64(v + f.RearFocal)},
-		{"FrontFocal", float64(c.FrontFocal), float64(v + f.FrontFocal)},
-		{"FrontPrincipal", float64(c.FrontPrincipal), float64(v)},
-		{"RearPrincipal", float64(c.RearPrincipal), float64(v)},
-		{"FrontNodal", float64(c.FrontNodal), float64(v + f.Nodal)},
-		{"RearNodal", float64(c.RearNodal), float64(v + f.Nodal)},
-		// f'/n' = −f/n = 1/Φ (Gaussian optics in two media; Hecht §6.1 [from memory]).
+		{"det", s.Matrix(paraxial.Tangential).Det(), f.Det},
+		{"RearFocalLength", float64(c.ImageFocalLength), float64(f.RearFocal)},
+		{"FrontFocalLength", float64(c.ObjectFocalLength), float64(f.FrontFocal)},
+		{"RearFocal", float64(c.RearFocalPoint), float64(v + f.RearFocal)},
+		{"FrontFocal", float64(c.FrontFocalPoint), float64(v + f.FrontFocal)},
+		{"FrontPrincipal", float64(c.FrontPrincipalPlane), float64(v)},
+		{"RearPrincipal", float64(c.RearPrincipalPlane), float64(v)},
+		{"FrontNodal", float64(c.FrontNodalPoint), float64(v + f.Nodal)},
+		{"RearNodal", float64(c.RearNodalPoint), float64(v + f.Nodal)},
+		// f'/n' = −f/n = 1/Φ (Gaussian optics in two media; M. Born & E. Wolf,
+		// Principles of Optics, 7th ed., Cambridge 1999, ch. 4 [from memory]).
 		{"EFL", float64(c.EFL), float64(f.RearFocal) / f.N2},
 	})
 	if c.Afocal {
@@ -76,9 +77,10 @@ func TestCardinalSingleSurfaceR27(t *testing.T) {
 
 func TestCardinalThickLensR30(t *testing.T) {
 	// reference-checks R30 [X] with the tolerance each fixture's quoted
-	// digits support; against the closed forms (lensmaker with thickness
-	// and principal-plane positions, E. Hecht, Optics, 4th ed., §6.2
-	// [from memory]) the matrix method is exact up to rounding: rel 1e-12.
+	// digits support (each fixture names its source); against the closed
+	// forms (thick-lens power and principal-plane positions, W. J. Smith,
+	// Modern Optical Engineering, 4th ed., McGraw-Hill 2008, ch. 2 [from
+	// memory]) the matrix method is exact up to rounding: rel 1e-12.
 	for _, l := range fixtures.ThickLenses {
 		s, err := l.Build()
 		if err != nil {
@@ -90,20 +92,21 @@ func TestCardinalThickLensR30(t *testing.T) {
 			{"EFL", float64(c.EFL), float64(l.EFL)},
 			{"BFL", float64(c.BFL), float64(l.BFL)},
 			{"FFL (symmetric lens)", float64(c.FFL), float64(l.BFL)},
-			{"H − first vertex", float64(c.FrontPrincipal - c.FirstVertex), float64(l.Principal)},
-			{"last vertex − H'", float64(c.LastVertex - c.RearPrincipal), float64(l.Principal)},
+			{"H − first vertex", float64(c.FrontPrincipalPlane - c.FirstVertex), float64(l.Principal)},
+			{"last vertex − H'", float64(c.LastVertex - c.RearPrincipalPlane), float64(l.Principal)},
 		})
 		n, r1, r2, d := l.N, float64(l.R1), float64(l.R2), float64(l.T)
 		phi := (n - 1) * (1/r1 - 1/r2 + (n-1)*d/(n*r1*r2))
 		efl := 1 / phi
 		checkAll(t, "lensmaker "+l.Name, 0, 1e-12, []check{
 			{"Power", c.Power, phi},
-			// Hecht §6.2 [from memory]: h1 = −f(n−1)d/(n R2), h2 = −f(n−1)d/(n R1),
+			// Smith, Modern Optical Engineering, ch. 2 [from memory]:
+			// h1 = −f(n−1)d/(n R2), h2 = −f(n−1)d/(n R1),
 			// each measured from its vertex, positive towards +z.
-			{"h1", float64(c.FrontPrincipal - c.FirstVertex), -efl * (n - 1) * d / (n * r2)},
-			{"h2", float64(c.RearPrincipal - c.LastVertex), -efl * (n - 1) * d / (n * r1)},
+			{"h1", float64(c.FrontPrincipalPlane - c.FirstVertex), -efl * (n - 1) * d / (n * r2)},
+			{"h2", float64(c.RearPrincipalPlane - c.LastVertex), -efl * (n - 1) * d / (n * r1)},
 		})
-		if det := s.Matrix().Det(); !scalar.EqualWithinAbsOrRel(det, 1, 0, 1e-12) {
+		if det := s.Matrix(paraxial.Tangential).Det(); !scalar.EqualWithinAbsOrRel(det, 1, 0, 1e-12) {
 			t.Errorf("R27 lens in air %s: det = %.17g, want 1", l.Name, det)
 		}
 	}
@@ -112,15 +115,21 @@ func TestCardinalThickLensR30(t *testing.T) {
 func TestAfocalR31(t *testing.T) {
 	// reference-checks R31 [X]: Kepler telescope f1 = 0.1 m, f2 = 0.3 m:
 	// C = 0, transverse magnification A = −f2/f1 = −3, angular
-	// magnification D = −f1/f2. Entries O(1): rel 1e-14.
+	// magnification D = −f1/f2. Sources: the angular magnification
+	// −f_objective/f_eyepiece of the astronomical telescope, F. L. Pedrotti,
+	// L. S. Pedrotti & L. M. Pedrotti, Introduction to Optics, 3rd ed.,
+	// Pearson 2007, ch. 3 [from memory]; C = 0 as the afocal (telescopic)
+	// condition of the system matrix, A. Gerrard & J. M. Burch, Introduction
+	// to Matrix Methods in Optics, Wiley 1975, ch. II [from memory].
+	// Entries O(1): rel 1e-14.
 	s := build(t, fixtures.Kepler())
 	c := cardinal(t, s, paraxial.Tangential)
 	if !c.Afocal {
-		t.Fatalf("R31 Kepler: Afocal = false (C = %g)", s.Matrix().C)
+		t.Fatalf("R31 Kepler: Afocal = false (C = %g)", s.Matrix(paraxial.Tangential).C)
 	}
 	checkAll(t, "R31 Kepler", 1e-15, 1e-14, []check{
-		{"A", s.Matrix().A, fixtures.KeplerMatrix.A},
-		{"B", s.Matrix().B, fixtures.KeplerMatrix.B},
+		{"A", s.Matrix(paraxial.Tangential).A, fixtures.KeplerMatrix.A},
+		{"B", s.Matrix(paraxial.Tangential).B, fixtures.KeplerMatrix.B},
 		{"AngularMagnification", c.AngularMagnification, fixtures.KeplerMatrix.D},
 		{"TransverseMagnification", c.TransverseMagnification, fixtures.KeplerMatrix.A},
 		{"EFL (zero when afocal)", float64(c.EFL), 0},
@@ -156,7 +165,7 @@ func TestMatricesR31(t *testing.T) {
 			t.Errorf("R31 %s: Build error: %v", test.name, err)
 			continue
 		}
-		m := s.Matrix()
+		m := s.Matrix(paraxial.Tangential)
 		checkAll(t, "R31 "+test.name, abs, rel, []check{
 			{"A", m.A, test.want.A}, {"B", m.B, test.want.B}, {"C", m.C, test.want.C}, {"D", m.D, test.want.D},
 			// det = 1 in air with B = 0 or C = 0 gives D = 1/A.
@@ -168,7 +177,13 @@ func TestMatricesR31(t *testing.T) {
 func TestImageR31(t *testing.T) {
 	// reference-checks R31 [X]: 2f–2f imaging with f = 0.1 m gives the image
 	// 0.2 m after the lens with A = −1; s_o = 0.15 m gives s_i = 0.3 m and
-	// A = −2 (1/s_o + 1/s_i = 1/f). abs 1e-15 m, rel 1e-13.
+	// A = −2 (1/s_o + 1/s_i = 1/f). Sources: the Gaussian thin-lens
+	// equation 1/s_o + 1/s_i = 1/f with m = −s_i/s_o, F. L. Pedrotti,
+	// L. S. Pedrotti & L. M. Pedrotti, Introduction to Optics, 3rd ed.,
+	// Pearson 2007, ch. 2 [from memory]; B = 0 as the imaging condition with
+	// A the magnification, A. Gerrard & J. M. Burch, Introduction to Matrix
+	// Methods in Optics, Wiley 1975, ch. II [from memory]. abs 1e-15 m,
+	// rel 1e-13.
 	s := build(t, paraxial.NewBuilder().Space(200*mm).ThinLens(100*mm).Space(50*mm))
 	for _, test := range []struct {
 		object, image units.Length
@@ -210,7 +225,8 @@ func TestImageR31(t *testing.T) {
 }
 
 func TestObjectFor(t *testing.T) {
-	// Thin lens (Gaussian lens formula, Hecht §5.2.3 [from memory]):
+	// Thin lens (Gaussian lens formula, Pedrotti, Pedrotti & Pedrotti,
+	// Introduction to Optics, 3rd ed., Pearson 2007, ch. 2 [from memory]):
 	// m = −s_i/s_o with 1/s_o + 1/s_i = 1/f gives s_o = f(1 − 1/m).
 	// A few operations on O(0.1 m): rel 1e-13.
 	const f = 80 * mm
@@ -256,9 +272,10 @@ func randomSystem(rng *rand.Rand) *paraxial.Builder {
 func TestNewtonProperty(t *testing.T) {
 	// Newton's imaging equation x·x' = f·f' with x, x' the object and image
 	// positions from F and F' (signed along +z); in air f = −f' and it reads
-	// x·x' = −f'² (Hecht, Optics, §5.2.3 [from memory]; in two media
-	// f·f' = −n n'/Φ², Smith, Modern Optical Engineering, ch. 2 [from
-	// memory]). Cancellation in x' near F' costs a few digits: rel 1e-9.
+	// x·x' = −f'² (W. J. Smith, Modern Optical Engineering, 4th ed.,
+	// McGraw-Hill 2008, ch. 2 [from memory]; in two media f·f' = −n n'/Φ²,
+	// the same chapter [from memory]). Cancellation in x' near F' costs a
+	// few digits: rel 1e-9.
 	rng := rand.New(rand.NewPCG(1, 1))
 	checked := 0
 	defer func() {
@@ -277,13 +294,13 @@ func TestNewtonProperty(t *testing.T) {
 			continue
 		}
 		x := units.Length((rng.Float64() - 0.5) * 4 * math.Abs(float64(c.EFL)))
-		im, err := s.Image(c.FrontFocal+x, paraxial.Tangential)
+		im, err := s.Image(c.FrontFocalPoint+x, paraxial.Tangential)
 		if err != nil {
 			continue // x ≈ 0
 		}
 		checked++
-		xp := im.Image - c.RearFocal
-		ff := float64(c.FrontFocalLength) * float64(c.RearFocalLength)
+		xp := im.Image - c.RearFocalPoint
+		ff := float64(c.ObjectFocalLength) * float64(c.ImageFocalLength)
 		if !scalar.EqualWithinAbsOrRel(float64(x)*float64(xp), ff, 1e-12*math.Abs(ff), 1e-9) {
 			t.Errorf("case %d: x·x' = %.12g, want f·f' = %.12g", i, float64(x)*float64(xp), ff)
 			continue
@@ -291,8 +308,9 @@ func TestNewtonProperty(t *testing.T) {
 		if want := -s.IndexIn() * s.IndexOut() / (c.Power * c.Power); !scalar.EqualWithinAbsOrRel(ff, want, 0, 1e-12) {
 			t.Errorf("case %d: f·f' = %.12g, want −n n'/Φ² = %.12g", i, ff, want)
 		}
-		// Transverse magnification from Newton: m = −f/x (Hecht §5.2.3 [from memory]).
-		if want := -float64(c.FrontFocalLength) / float64(x); !scalar.EqualWithinAbsOrRel(im.Magnification, want, 1e-12, 1e-9) {
+		// Transverse magnification from Newton: m = −f/x (Smith, Modern
+		// Optical Engineering, ch. 2 [from memory]).
+		if want := -float64(c.ObjectFocalLength) / float64(x); !scalar.EqualWithinAbsOrRel(im.Magnification, want, 1e-12, 1e-9) {
 			t.Errorf("case %d: m = %.12g, want −f/x = %.12g", i, im.Magnification, want)
 		}
 	}
@@ -323,7 +341,7 @@ func TestGullstrandProperty(t *testing.T) {
 		}
 		// Principal-plane separation: H2 of b (relative to its vertex, shifted
 		// by the gap) minus H1' of a.
-		d := float64((a.Length() + gap + cb.FrontPrincipal) - ca.RearPrincipal)
+		d := float64((a.Length() + gap + cb.FrontPrincipalPlane) - ca.RearPrincipalPlane)
 		want := ca.Power + cb.Power - d/n*ca.Power*cb.Power
 		scale := math.Abs(ca.Power) + math.Abs(cb.Power) + math.Abs(d/n*ca.Power*cb.Power)
 		if !scalar.EqualWithinAbsOrRel(c.Power, want, 1e-12*scale, 1e-10) {
@@ -358,11 +376,11 @@ func TestReverseProperty(t *testing.T) {
 			t.Errorf("case %d: Reverse error: %v", i, err)
 			continue
 		}
-		got, want := r.Matrix(), s.Matrix().Reverse()
+		got, want := r.Matrix(paraxial.Tangential), s.Matrix(paraxial.Tangential).Reverse()
 		scale := math.Abs(want.A) + math.Abs(want.B) + math.Abs(want.C) + math.Abs(want.D)
 		for _, c := range []check{{"A", got.A, want.A}, {"B", got.B, want.B}, {"C", got.C, want.C}, {"D", got.D, want.D}} {
 			if !scalar.EqualWithinAbsOrRel(c.got, c.want, 1e-13*scale, 1e-10) {
-				t.Errorf("case %d: Reverse().Matrix().%s = %.15g, want %.15g", i, c.name, c.got, c.want)
+				t.Errorf("case %d: Reverse().Matrix(paraxial.Tangential).%s = %.15g, want %.15g", i, c.name, c.got, c.want)
 			}
 		}
 		if r.IndexIn() != s.IndexOut() || r.IndexOut() != s.IndexIn() {
@@ -377,7 +395,7 @@ func TestReverseProperty(t *testing.T) {
 			})
 		}
 		rr, _ := r.Reverse()
-		if m, w := rr.Matrix(), s.Matrix(); !scalar.EqualWithinAbsOrRel(m.B, w.B, 1e-13*scale, 1e-10) || !scalar.EqualWithinAbsOrRel(m.C, w.C, 1e-13*scale, 1e-10) {
+		if m, w := rr.Matrix(paraxial.Tangential), s.Matrix(paraxial.Tangential); !scalar.EqualWithinAbsOrRel(m.B, w.B, 1e-13*scale, 1e-10) || !scalar.EqualWithinAbsOrRel(m.C, w.C, 1e-13*scale, 1e-10) {
 			t.Errorf("case %d: Reverse twice = %+v, want %+v", i, m, w)
 		}
 	}
@@ -386,34 +404,35 @@ func TestReverseProperty(t *testing.T) {
 	s := build(t, paraxial.NewBuilder().ThickLens(40*mm, paraxial.Flat, 6*mm, 1.6))
 	r, _ := s.Reverse()
 	turned := build(t, paraxial.NewBuilder().ThickLens(paraxial.Flat, -40*mm, 6*mm, 1.6))
-	if g, w := r.Matrix(), turned.Matrix(); !scalar.EqualWithinAbsOrRel(g.A, w.A, 1e-15, 1e-13) || !scalar.EqualWithinAbsOrRel(g.C, w.C, 1e-15, 1e-13) || !scalar.EqualWithinAbsOrRel(g.D, w.D, 1e-15, 1e-13) {
+	if g, w := r.Matrix(paraxial.Tangential), turned.Matrix(paraxial.Tangential); !scalar.EqualWithinAbsOrRel(g.A, w.A, 1e-15, 1e-13) || !scalar.EqualWithinAbsOrRel(g.C, w.C, 1e-15, 1e-13) || !scalar.EqualWithinAbsOrRel(g.D, w.D, 1e-15, 1e-13) {
 		t.Errorf("reversed plano-convex = %+v, want %+v", g, w)
 	}
 }
 
 func TestMirrorAstigmatism(t *testing.T) {
 	// A concave mirror of radius 200 mm (R = −200 mm in the package sign
-	// convention) has f = 100 mm (Kogelnik & Li 1966, table I); at 30°
-	// incidence f_t = f·cos θ = 86.6025 mm and f_s = f/cos θ = 115.4701 mm
+	// convention) has f = 100 mm (Kogelnik & Li 1966, table I [from
+	// memory]); at 30° incidence f_t = f·cos θ = 86.6025 mm and
+	// f_s = f/cos θ = 115.4701 mm
 	// (Kogelnik, Ippen, Dienes & Shank, IEEE JQE QE-8, 373 (1972)
 	// [from memory]). Closed forms: rel 1e-14.
-	s := build(t, paraxial.NewBuilder().Mirror(-200*mm, 30*units.Degree).Space(10*mm))
+	s := build(t, paraxial.NewBuilder().ConcaveMirror(200*mm, 30*units.Degree).Space(10*mm))
 	ct, cs := cardinal(t, s, paraxial.Tangential), cardinal(t, s, paraxial.Sagittal)
 	cos := math.Cos(math.Pi / 6)
 	checkAll(t, "tilted mirror", 0, 1e-14, []check{
 		{"f_t", float64(ct.EFL), 0.1 * cos},
 		{"f_s", float64(cs.EFL), 0.1 / cos},
 		{"Focal field", float64(s.Element(0).Focal), 0.1},
-		{"det X", s.Matrix().Det(), 1},
-		{"det Y", s.MatrixY().Det(), 1},
+		{"det X", s.Matrix(paraxial.Tangential).Det(), 1},
+		{"det Y", s.Matrix(paraxial.Sagittal).Det(), 1},
 	})
 	// Convex mirror, normal incidence: f = −R/2 = −50 mm.
-	c := cardinal(t, build(t, paraxial.NewBuilder().Mirror(100*mm, 0)), 0)
+	c := cardinal(t, build(t, paraxial.NewBuilder().ConvexMirror(100*mm, 0)), 0)
 	checkAll(t, "convex mirror", 0, 1e-14, []check{{"EFL", float64(c.EFL), -0.05}})
 	// A flat mirror has no power in either plane.
-	f := build(t, paraxial.NewBuilder().Mirror(paraxial.Flat, 45*units.Degree))
-	if m := f.Matrix(); m != paraxial.Identity() || f.MatrixY() != paraxial.Identity() {
-		t.Errorf("flat mirror matrices = %+v, %+v, want identity", m, f.MatrixY())
+	f := build(t, paraxial.NewBuilder().FlatMirror(45*units.Degree))
+	if m := f.Matrix(paraxial.Tangential); m != paraxial.Identity() || f.Matrix(paraxial.Sagittal) != paraxial.Identity() {
+		t.Errorf("flat mirror matrices = %+v, %+v, want identity", m, f.Matrix(paraxial.Sagittal))
 	}
 }
 
@@ -423,12 +442,12 @@ func TestCylindricalLens(t *testing.T) {
 	// product of the per-plane matrices).
 	s := build(t, paraxial.NewBuilder().CylindricalLens(50*mm, paraxial.Sagittal).CylindricalLens(50*mm, paraxial.Tangential))
 	want := paraxial.ThinLens(50 * mm)
-	if s.Matrix() != want || s.MatrixY() != want {
-		t.Errorf("crossed cylinders = %+v / %+v, want %+v", s.Matrix(), s.MatrixY(), want)
+	if s.Matrix(paraxial.Tangential) != want || s.Matrix(paraxial.Sagittal) != want {
+		t.Errorf("crossed cylinders = %+v / %+v, want %+v", s.Matrix(paraxial.Tangential), s.Matrix(paraxial.Sagittal), want)
 	}
 	one := build(t, paraxial.NewBuilder().CylindricalLens(50*mm, paraxial.Sagittal))
-	if one.Matrix() != paraxial.Identity() || one.MatrixY() != want {
-		t.Errorf("sagittal cylinder = %+v / %+v", one.Matrix(), one.MatrixY())
+	if one.Matrix(paraxial.Tangential) != paraxial.Identity() || one.Matrix(paraxial.Sagittal) != want {
+		t.Errorf("sagittal cylinder = %+v / %+v", one.Matrix(paraxial.Tangential), one.Matrix(paraxial.Sagittal))
 	}
 }
 
@@ -436,6 +455,12 @@ func TestPlateR32(t *testing.T) {
 	// reference-checks R32 [X]: t = 10 mm, n = 1.5: focus shift
 	// t(1 − 1/n) = 3.3333 mm (quoted to 1e-4 mm: abs 1e-7 m), lateral
 	// displacement at 30° = 1.938138 mm (quoted to 1e-6 mm: abs 1e-9 m).
+	// Sources: the longitudinal shift and the lateral displacement of a
+	// plane-parallel plate, W. J. Smith, Modern Optical Engineering, 4th
+	// ed., McGraw-Hill 2008, ch. 4 [from memory]; the air-equivalent
+	// ("reduced") thickness t/n, A. Gerrard & J. M. Burch, Introduction to
+	// Matrix Methods in Optics, Wiley 1975, ch. II [from memory]; the
+	// displacement is also checked below against Snell's law directly.
 	p := fixtures.Plate
 	if got := paraxial.PlateShift(p.T, p.N, 1); !scalar.EqualWithinAbsOrRel(float64(got), float64(p.Shift), 1e-7, 0) {
 		t.Errorf("PlateShift = %v, want %v", got, p.Shift)
@@ -459,7 +484,7 @@ func TestPlateR32(t *testing.T) {
 	// invariance across parallel planar layers). One division: abs
 	// 1e-15, rel 1e-14.
 	plate := build(t, paraxial.NewBuilder().Plate(p.T, p.N, 0))
-	m := plate.Matrix()
+	m := plate.Matrix(paraxial.Tangential)
 	checkAll(t, "R32 plate matrix", 1e-15, 1e-14, []check{
 		{"A", m.A, 1}, {"B = t/n", m.B, float64(p.T) / p.N}, {"C", m.C, 0}, {"D", m.D, 1},
 		{"t − B = shift", float64(p.T) - m.B, float64(paraxial.PlateShift(p.T, p.N, 1))},
@@ -495,11 +520,11 @@ func TestTiltedPlateBrewster(t *testing.T) {
 	s := build(t, paraxial.NewBuilder().Plate(tk, n, th))
 	root := math.Sqrt(n*n + 1)
 	checkAll(t, "Brewster plate", 0, 1e-13, []check{
-		{"B sagittal", s.MatrixY().B, float64(tk) * root / (n * n)},
-		{"B tangential", s.Matrix().B, float64(tk) * root / (n * n * n * n)},
-		{"A tangential", s.Matrix().A, 1},
-		{"D tangential", s.Matrix().D, 1},
-		{"det X", s.Matrix().Det(), 1},
+		{"B sagittal", s.Matrix(paraxial.Sagittal).B, float64(tk) * root / (n * n)},
+		{"B tangential", s.Matrix(paraxial.Tangential).B, float64(tk) * root / (n * n * n * n)},
+		{"A tangential", s.Matrix(paraxial.Tangential).A, 1},
+		{"D tangential", s.Matrix(paraxial.Tangential).D, 1},
+		{"det X", s.Matrix(paraxial.Tangential).Det(), 1},
 	})
 	cs := s.Components()
 	if len(cs) != 1 || cs[0].Kind != paraxial.KindPlate || !scalar.EqualWithinAbsOrRel(float64(cs[0].Thickness), float64(tk), 0, 1e-14) {
@@ -513,9 +538,9 @@ func TestRelayApertures(t *testing.T) {
 	// working f-number 1/(2·0.05) = 10, field stop L2, half field 10 mm,
 	// unvignetted 5 mm. Few operations: abs 1e-15, rel 1e-12.
 	s := build(t, fixtures.Relay4f())
-	a, err := s.Apertures(paraxial.ObjectAt(0), paraxial.Tangential)
+	a, err := s.Stops(paraxial.ObjectAt(0), paraxial.Tangential)
 	if err != nil {
-		t.Fatalf("Apertures error: %v", err)
+		t.Fatalf("Stops error: %v", err)
 	}
 	if a.Stop != 3 || a.FieldStop != 5 || !a.Entrance.AtInfinity || !a.Exit.AtInfinity {
 		t.Errorf("Apertures: stop %d, field stop %d, pupils at infinity %v/%v; want 3, 5, true/true", a.Stop, a.FieldStop, a.Entrance.AtInfinity, a.Exit.AtInfinity)
@@ -556,10 +581,10 @@ func TestSingleLensPupils(t *testing.T) {
 	// the stop: entrance pupil at the lens, radius 10 mm, f-number
 	// f/D = 5 (definition, Smith ch. 6 [from memory]); working f-number
 	// for an infinite object equals it.
-	s := build(t, paraxial.NewBuilder().Space(20*mm).ThinLens(100*mm).Aperture(10*mm).Space(100*mm))
-	a, err := s.Apertures(paraxial.ObjectAtInfinity(), 0)
+	s := build(t, paraxial.NewBuilder().Space(20*mm).ThinLens(100*mm).Aperture(paraxial.ClearRadius(10*mm)).Space(100*mm))
+	a, err := s.Stops(paraxial.ObjectAtInfinity(), 0)
 	if err != nil {
-		t.Fatalf("Apertures error: %v", err)
+		t.Fatalf("Stops error: %v", err)
 	}
 	checkAll(t, "single lens", 1e-15, 1e-13, []check{
 		{"Entrance.Z", float64(a.Entrance.Z), 0.02},
@@ -574,11 +599,12 @@ func TestSingleLensPupils(t *testing.T) {
 	// Stop 30 mm before a thin lens f = 100 mm: the exit pupil is the
 	// virtual image of the stop, s_o = 30 mm, 1/s_i = 1/f − 1/s_o gives
 	// s_i = −42.857 mm (before the lens) with magnification −s_i/s_o =
-	// 1.428571 (Gaussian lens formula, Hecht §5.2.3 [from memory]).
-	s = build(t, paraxial.NewBuilder().Space(50*mm).Diaphragm(4*mm).Space(30*mm).ThinLens(100*mm).Aperture(15*mm).Space(120*mm))
-	a, err = s.Apertures(paraxial.ObjectAtInfinity(), 0)
+	// 1.428571 (Gaussian lens formula, Pedrotti, Pedrotti & Pedrotti,
+	// Introduction to Optics, 3rd ed., Pearson 2007, ch. 2 [from memory]).
+	s = build(t, paraxial.NewBuilder().Space(50*mm).Diaphragm(paraxial.ClearRadius(4*mm)).Space(30*mm).ThinLens(100*mm).Aperture(paraxial.ClearRadius(15*mm)).Space(120*mm))
+	a, err = s.Stops(paraxial.ObjectAtInfinity(), 0)
 	if err != nil {
-		t.Fatalf("Apertures error: %v", err)
+		t.Fatalf("Stops error: %v", err)
 	}
 	si := 1 / (1/0.1 - 1/0.03)
 	checkAll(t, "stop before lens", 1e-15, 1e-12, []check{
@@ -598,11 +624,11 @@ func TestTelecentricPupilsRounding(t *testing.T) {
 	// object to the stop is 8e-18 rather than 0; a pupil must still be
 	// reported at infinity, not at ~1e15 m.
 	for _, f := range []units.Length{100 * mm, 170 * mm, 123 * mm, 70 * mm} {
-		s := build(t, paraxial.NewBuilder().Space(f).ThinLens(f).Aperture(20*mm).Space(f).
-			Diaphragm(2*mm).Space(f).ThinLens(f).Aperture(20*mm).Space(f))
-		a, err := s.Apertures(paraxial.ObjectAt(0), paraxial.Tangential)
+		s := build(t, paraxial.NewBuilder().Space(f).ThinLens(f).Aperture(paraxial.ClearRadius(20*mm)).Space(f).
+			Diaphragm(paraxial.ClearRadius(2*mm)).Space(f).ThinLens(f).Aperture(paraxial.ClearRadius(20*mm)).Space(f))
+		a, err := s.Stops(paraxial.ObjectAt(0), paraxial.Tangential)
 		if err != nil {
-			t.Errorf("f = %v: Apertures error: %v", f, err)
+			t.Errorf("f = %v: Stops error: %v", f, err)
 			continue
 		}
 		if a.Stop != 3 || !a.Entrance.AtInfinity || !a.Exit.AtInfinity {
@@ -618,10 +644,10 @@ func TestStopTie(t *testing.T) {
 	// Without a tie margin the choice followed rounding (L2 for 110 mm).
 	// The entrance pupil is then L1 itself: z = 50 mm, radius 20 mm.
 	for _, f := range []units.Length{110 * mm, 170 * mm, 30 * mm} {
-		s := build(t, paraxial.NewBuilder().Space(50*mm).ThinLens(f).Aperture(20*mm).Space(2*f).ThinLens(f).Aperture(20*mm).Space(f))
-		a, err := s.Apertures(paraxial.ObjectAtInfinity(), paraxial.Tangential)
+		s := build(t, paraxial.NewBuilder().Space(50*mm).ThinLens(f).Aperture(paraxial.ClearRadius(20*mm)).Space(2*f).ThinLens(f).Aperture(paraxial.ClearRadius(20*mm)).Space(f))
+		a, err := s.Stops(paraxial.ObjectAtInfinity(), paraxial.Tangential)
 		if err != nil {
-			t.Errorf("f = %v: Apertures error: %v", f, err)
+			t.Errorf("f = %v: Stops error: %v", f, err)
 			continue
 		}
 		if a.Stop != 1 {
@@ -642,15 +668,16 @@ func TestDiaphragmsAreNotVertices(t *testing.T) {
 	// to F'), so BFL = FFL = f = 50 mm; a diaphragm, whose matrix is the
 	// identity, is not a vertex. An object between the iris and the lens
 	// is real: s_o = 5 mm gives the virtual image s_i = −5.556 mm (Gaussian
-	// lens formula, Hecht §5.2.3 [from memory]). abs 1e-15 m, rel 1e-13.
-	s := build(t, paraxial.NewBuilder().Space(10*mm).Diaphragm(4*mm).Space(10*mm).ThinLens(50*mm).Aperture(12*mm).Space(50*mm).Diaphragm(4*mm))
+	// lens formula, Pedrotti, Pedrotti & Pedrotti, Introduction to Optics,
+	// 3rd ed., Pearson 2007, ch. 2 [from memory]). abs 1e-15 m, rel 1e-13.
+	s := build(t, paraxial.NewBuilder().Space(10*mm).Diaphragm(paraxial.ClearRadius(4*mm)).Space(10*mm).ThinLens(50*mm).Aperture(paraxial.ClearRadius(12*mm)).Space(50*mm).Diaphragm(paraxial.ClearRadius(4*mm)))
 	c := cardinal(t, s, paraxial.Tangential)
 	checkAll(t, "camera", 1e-15, 1e-13, []check{
 		{"BFL", float64(c.BFL), 0.05},
 		{"FFL", float64(c.FFL), 0.05},
 		{"FirstVertex", float64(c.FirstVertex), 0.02},
 		{"LastVertex", float64(c.LastVertex), 0.02},
-		{"RearFocal", float64(c.RearFocal), 0.07},
+		{"RearFocal", float64(c.RearFocalPoint), 0.07},
 	})
 	im, err := s.Image(15*mm, paraxial.Tangential)
 	if err != nil {
@@ -662,8 +689,8 @@ func TestDiaphragmsAreNotVertices(t *testing.T) {
 	}
 	// The object of an aperture analysis must still precede the iris,
 	// since the iris limits the pencil.
-	if _, err := s.Apertures(paraxial.ObjectAt(15*mm), paraxial.Tangential); err == nil {
-		t.Errorf("Apertures with the object after the iris: error = nil, want an *ElementError")
+	if _, err := s.Stops(paraxial.ObjectAt(15*mm), paraxial.Tangential); err == nil {
+		t.Errorf("Stops with the object after the iris: error = nil, want an *ElementError")
 	}
 }
 
@@ -675,12 +702,12 @@ func TestApertureInImagePlane(t *testing.T) {
 	// is no stop. In floating point the height is ~1e-17 rather than 0 for
 	// f = 170 mm, which made the mask a stop with a 1e14 m marginal ray.
 	for _, f := range []units.Length{100 * mm, 170 * mm, 123 * mm} {
-		s := build(t, paraxial.NewBuilder().Space(10*mm).ThinLens(f).Space(f).Diaphragm(1*mm).Space(10*mm))
-		if _, err := s.Apertures(paraxial.ObjectAtInfinity(), paraxial.Tangential); err != paraxial.ErrNoStop {
+		s := build(t, paraxial.NewBuilder().Space(10*mm).ThinLens(f).Space(f).Diaphragm(paraxial.ClearRadius(1*mm)).Space(10*mm))
+		if _, err := s.Stops(paraxial.ObjectAtInfinity(), paraxial.Tangential); err != paraxial.ErrNoStop {
 			t.Errorf("f = %v, mask in the focal plane: error = %v, want ErrNoStop", f, err)
 		}
-		s = build(t, paraxial.NewBuilder().Space(2*f).ThinLens(f).Space(2*f).Diaphragm(1*mm))
-		if _, err := s.Apertures(paraxial.ObjectAt(0), paraxial.Tangential); err != paraxial.ErrNoStop {
+		s = build(t, paraxial.NewBuilder().Space(2*f).ThinLens(f).Space(2*f).Diaphragm(paraxial.ClearRadius(1*mm)))
+		if _, err := s.Stops(paraxial.ObjectAt(0), paraxial.Tangential); err != paraxial.ErrNoStop {
 			t.Errorf("f = %v, mask in the image plane: error = %v, want ErrNoStop", f, err)
 		}
 	}

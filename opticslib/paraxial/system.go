@@ -2,6 +2,7 @@ package paraxial
 
 import (
 	"errors"
+	"iter"
 	"strconv"
 
 	"github.com/beamnote/beamnote/opticslib/units"
@@ -17,20 +18,30 @@ var ErrOrder = errors.New("paraxial: start position after end position")
 
 // ErrOverflow is returned when a composed matrix or length overflows to
 // ±Inf or NaN although every input was finite. [Builder.Build] and the
-// edits ([System.WithSpace], [System.Replace], [System.Reverse]) wrap it
-// in an [*ElementError] naming the element at which the running product
-// overflowed; test for it with errors.Is.
+// edits wrap it in an [*ElementError] naming the part at which the running
+// product overflowed; test for it with errors.Is.
 var ErrOverflow = errors.New("paraxial: matrix entry overflowed (not finite)")
 
 // System is an immutable, ordered sequence of elements built by a
-// [Builder]. The zero value is an empty system in a medium of index 0 and
-// is not useful; obtain systems from [Builder.Build].
+// [Builder]. The zero value is not a system: every analysis and edit
+// returns [ErrNotBuilt] for it, and [System.Matrix] returns the zero
+// matrix. Obtain systems from [Builder.Build].
 type System struct {
 	elems            []Element
 	comps            []Component
 	nIn, nOut        float64
 	length           units.Length
 	matrixX, matrixY Matrix
+	built            bool
+}
+
+// Validate returns [ErrNotBuilt] for the zero System and nil for a system
+// made by [Builder.Build] or an edit.
+func (s System) Validate() error {
+	if !s.built {
+		return ErrNotBuilt
+	}
+	return nil
 }
 
 // Len returns the number of elements.
@@ -63,45 +74,34 @@ func (s System) IndexOut() float64 { return s.nOut }
 // elements.
 func (s System) Components() []Component { return append([]Component(nil), s.comps...) }
 
-// PlaneMatrix returns the transfer matrix of the whole system in plane p:
-// [System.Matrix] for Tangential and [System.MatrixY] for Sagittal.
-func (s System) PlaneMatrix(p Plane) Matrix {
+// Matrix returns the transfer matrix of the whole system in plane p, from
+// the input plane (z = 0) to the output plane (z = Length()): the product
+// M = M_{N−1}⋯M₁·M₀ of the element matrices (the element met first stands
+// rightmost). It is the identity for an empty system and the zero matrix
+// for the zero System. Its determinant is IndexIn()/IndexOut(). It panics
+// if p is neither Tangential nor Sagittal.
+func (s System) Matrix(p Plane) Matrix {
+	mustPlane(p)
 	if p == Sagittal {
 		return s.matrixY
 	}
 	return s.matrixX
 }
 
-// MatrixY returns the sagittal (Y) transfer matrix from the input plane to
-// the output plane. It equals [System.Matrix] for a rotationally symmetric
-// system.
-func (s System) MatrixY() Matrix { return s.matrixY }
-
-// Matrix returns the tangential (X) transfer matrix from the input plane
-// (z = 0) to the output plane (z = Length()): the product M_{N−1}⋯M_1·M_0 of
-// the element matrices. It is the identity for an empty system. Its
-// determinant is IndexIn()/IndexOut().
-func (s System) Matrix() Matrix { return s.matrixX }
-
-// MatrixTo returns the tangential (X) transfer matrix from the input plane
-// to the plane at position z (metres from the input plane). A plane partway
+// MatrixTo returns the transfer matrix in plane p from the input plane to
+// the plane at position z (metres from the input plane). A plane partway
 // through a space gets the corresponding fraction of the gap. Surfaces
 // located exactly at z are included: the matrix describes the plane just
 // after them. For z < 0 the result propagates backwards in the input
 // medium, [Space](z); for z > Length() it continues in the output medium.
 //
-// It returns [ErrNonFinite] (and the identity) if z is NaN or ±Inf, and
-// [ErrOverflow] (and the identity) if an entry of the result overflows.
-func (s System) MatrixTo(z units.Length) (Matrix, error) {
-	return s.matrixTo(z, Tangential)
-}
-
-// MatrixToY is [System.MatrixTo] for the sagittal (Y) plane.
-func (s System) MatrixToY(z units.Length) (Matrix, error) {
-	return s.matrixTo(z, Sagittal)
-}
-
-func (s System) matrixTo(z units.Length, p Plane) (Matrix, error) {
+// It returns (with the identity) [ErrNotBuilt] for the zero System,
+// [ErrPlane] for an unknown plane, [ErrNonFinite] if z is NaN or ±Inf, and
+// [ErrOverflow] if an entry of the result overflows.
+func (s System) MatrixTo(z units.Length, p Plane) (Matrix, error) {
+	if err := s.check(p); err != nil {
+		return Identity(), err
+	}
 	if !finite(float64(z)) {
 		return Identity(), ErrNonFinite
 	}
@@ -113,6 +113,17 @@ func (s System) matrixTo(z units.Length, p Plane) (Matrix, error) {
 		return Identity(), ErrOverflow
 	}
 	return m, nil
+}
+
+// check returns the error for an unbuilt system or an unknown plane.
+func (s System) check(p Plane) error {
+	if !s.built {
+		return ErrNotBuilt
+	}
+	if !p.valid() {
+		return ErrPlane
+	}
+	return nil
 }
 
 // MatrixBetween returns the transfer matrix in plane p from the plane at
@@ -127,10 +138,12 @@ func (s System) matrixTo(z units.Length, p Plane) (Matrix, error) {
 // Parts of the range before z = 0 or after Length() propagate in the
 // input or output medium.
 //
-// It returns [ErrNonFinite] if z1 or z2 is not finite, [ErrOrder] if
-// z1 > z2, and [ErrOverflow] if an entry overflows; the matrix is then
-// the identity.
+// It returns the errors of [System.MatrixTo], and [ErrOrder] if z1 > z2;
+// the matrix is then the identity.
 func (s System) MatrixBetween(z1, z2 units.Length, p Plane) (Matrix, error) {
+	if err := s.check(p); err != nil {
+		return Identity(), err
+	}
 	if !finite(float64(z1)) || !finite(float64(z2)) {
 		return Identity(), ErrNonFinite
 	}
@@ -145,50 +158,172 @@ func (s System) MatrixBetween(z1, z2 units.Length, p Plane) (Matrix, error) {
 }
 
 // between composes the matrix from z1 to z2 ≥ z1. Surfaces at z1 are
-// included only if incl.
+// included only if incl or z1 < 0 (surfaces at z = 0 lie after a start
+// plane before the input plane).
 func (s System) between(z1, z2 units.Length, incl bool, p Plane) Matrix {
 	m := Identity()
-	pos := z1
-	if pos < 0 {
-		end := min(z2, 0)
-		m = Space(end - pos)
-		pos = end
-		if z2 < 0 {
-			return m
-		}
-		incl = true // surfaces at z = 0 lie after a start plane before 0
-	}
-	for _, e := range s.elems {
-		if e.Kind == KindSpace {
-			end := e.Z + e.Length
-			if end <= pos {
+	for w := s.walker(z1, z2); w.next(); {
+		pc := &w.pc
+		if pc.e != nil && pc.e.Kind != KindSpace {
+			if pc.from == z1 && !incl && z1 >= 0 {
 				continue
 			}
-			if e.Z >= z2 {
-				return m
-			}
-			to := min(end, z2)
-			if to > pos {
-				m = m.Then(Space(to - pos))
-				pos = to
-			}
-			if end > z2 {
-				return m
-			}
+			m = m.Then(pc.e.matrix(p))
 			continue
 		}
-		if e.Z < pos || (e.Z == z1 && !incl) {
-			continue
+		if d := pc.to - pc.from; d > 0 {
+			m = m.Then(Space(d))
 		}
-		if e.Z > z2 {
-			return m
-		}
-		m = m.Then(e.matrix(p))
-	}
-	if z2 > pos {
-		m = m.Then(Space(z2 - pos))
 	}
 	return m
+}
+
+// piece is one step of [System.walk]: a surface e at from = to, or the
+// stretch [from, to] of a space e, or of the input medium (i = −1) or the
+// output medium (i = Len()), where e is nil.
+type piece struct {
+	i        int
+	e        *Element
+	from, to units.Length
+}
+
+// walker is the one walk over a system, as a cursor that needs no
+// allocation: for w := s.walker(from, to); w.next(); { use w.pc }. It
+// visits, in order, every piece of the path between positions from ≤ to
+// (metres):
+//
+//   - the input medium [from, min(to, 0)] if from < 0;
+//   - every space that overlaps [from, to], clipped to it; a space of
+//     positive length that only touches from (ends there) or to (starts
+//     there) is left out, a zero-length space inside [from, to] is kept;
+//   - every surface at a position Z with from ≤ Z ≤ to;
+//   - the output medium [max(from, Length), to] if to > Length.
+//
+// w.pc.e points into the system's own element list and must not be
+// modified.
+type walker struct {
+	elems    []Element
+	length   units.Length
+	from, to units.Length
+	i        int // next element to consider; −1 before the input medium
+	done     bool
+	pc       piece
+}
+
+func (s *System) walker(from, to units.Length) walker {
+	return walker{elems: s.elems, length: s.length, from: from, to: to, i: -1}
+}
+
+// next moves to the next piece and reports whether there is one.
+func (w *walker) next() bool {
+	if w.done {
+		return false
+	}
+	if w.i < 0 {
+		w.i = 0
+		if w.from < 0 {
+			w.pc = piece{i: -1, from: w.from, to: min(w.to, 0)}
+			return true
+		}
+	}
+	for w.i < len(w.elems) {
+		i := w.i
+		e := &w.elems[i] // not a copy: Element is large and this loop is hot
+		w.i++
+		if e.Kind == KindSpace {
+			end := e.Z + e.Length
+			if end < w.from || (end == w.from && e.Length > 0) {
+				continue
+			}
+			if e.Z > w.to || (e.Z == w.to && e.Length > 0) {
+				w.i = len(w.elems)
+				break
+			}
+			w.pc = piece{i: i, e: e, from: max(w.from, e.Z), to: min(w.to, end)}
+			return true
+		}
+		if e.Z < w.from {
+			continue
+		}
+		if e.Z > w.to {
+			w.i = len(w.elems)
+			break
+		}
+		w.pc = piece{i: i, e: e, from: e.Z, to: e.Z}
+		return true
+	}
+	w.done = true
+	if w.to > w.length {
+		w.pc = piece{i: len(w.elems), from: max(w.from, w.length), to: w.to}
+		return true
+	}
+	return false
+}
+
+// walk calls f for every piece of [System.walker] from ≤ to, in order; f
+// returns false to stop.
+func (s System) walk(from, to units.Length, f func(*piece) bool) {
+	for w := s.walker(from, to); w.next(); {
+		if !f(&w.pc) {
+			return
+		}
+	}
+}
+
+// Piece is one step of a walk along a system ([System.Walk]): a surface at
+// From = To, or the stretch [From, To] of a space or of the input or output
+// medium, with its transfer matrices and the refractive indices on either
+// side.
+type Piece struct {
+	// Element is the element index in [System.Elements]; −1 for the input
+	// medium before z = 0 and Len() for the output medium after the last
+	// element.
+	Element int
+	// Kind is the element kind (KindSpace for the input and output media).
+	Kind Kind
+	// From and To are the axial positions in metres.
+	From, To units.Length
+	// X and Y are the tangential and sagittal matrices of this piece: the
+	// surface's, or [Space](To − From).
+	X, Y Matrix
+	// IndexIn and IndexOut are the refractive indices before and after
+	// the piece (equal except at an interface).
+	IndexIn, IndexOut float64
+}
+
+// Walk returns the pieces of s between positions from and to (metres from
+// the input plane, from ≤ to), in order: the input medium before z = 0 if
+// from < 0, the part of every space inside [from, to], every surface at a
+// position in [from, to] (ends included), and the output medium beyond
+// Length() if to > Length(). A space of positive length that only touches
+// from or to is left out. Every analysis of the package and of package
+// beam walks a system this way.
+//
+// An unbuilt system, non-finite bounds or from > to yield nothing.
+func (s System) Walk(from, to units.Length) iter.Seq[Piece] {
+	return func(yield func(Piece) bool) {
+		if !s.built || !finite(float64(from)) || !finite(float64(to)) || from > to {
+			return
+		}
+		s.walk(from, to, func(pc *piece) bool {
+			out := Piece{Element: pc.i, Kind: KindSpace, From: pc.from, To: pc.to}
+			switch {
+			case pc.e == nil && pc.i < 0:
+				out.IndexIn, out.IndexOut = s.nIn, s.nIn
+			case pc.e == nil:
+				out.IndexIn, out.IndexOut = s.nOut, s.nOut
+			default:
+				out.Kind, out.IndexIn, out.IndexOut = pc.e.Kind, pc.e.IndexIn, pc.e.IndexOut
+			}
+			if pc.e != nil && pc.e.Kind != KindSpace {
+				out.X, out.Y = pc.e.X, pc.e.Y
+			} else {
+				m := Space(pc.to - pc.from)
+				out.X, out.Y = m, m
+			}
+			return yield(out)
+		})
+	}
 }
 
 // IndexAt returns the refractive index of the medium at position z (metres
@@ -201,11 +336,14 @@ func (s System) IndexAt(z units.Length) float64 {
 		return z.Meters()
 	}
 	n := s.nIn
-	for _, e := range s.elems {
-		if e.Z > z {
-			break
-		}
-		n = e.IndexOut
+	if z < 0 {
+		return n
 	}
+	s.walk(0, z, func(pc *piece) bool {
+		if pc.e != nil {
+			n = pc.e.IndexOut
+		}
+		return true
+	})
 	return n
 }

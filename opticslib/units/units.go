@@ -20,6 +20,10 @@ const (
 	Millimeter Length = 1e-3
 	Centimeter Length = 1e-2
 	Meter      Length = 1
+	// Inch is 25.4 mm exactly (international yard and pound agreement,
+	// 1959; NIST SP 811, 2008, appendix B), the size in which many optics
+	// are sold.
+	Inch Length = 25.4e-3
 )
 
 // Meters returns l as a float64 number of metres.
@@ -87,6 +91,12 @@ func (a Angle) Radians() float64 { return float64(a) }
 
 // Degrees returns a as a float64 number of degrees, a·180/π.
 func (a Angle) Degrees() float64 { return float64(a / Degree) }
+
+// Milliradians returns a as a float64 number of milliradians, a/1e-3 rad.
+func (a Angle) Milliradians() float64 { return float64(a / Milliradian) }
+
+// Microradians returns a as a float64 number of microradians, a/1e-6 rad.
+func (a Angle) Microradians() float64 { return float64(a / Microradian) }
 
 // String formats a with six significant digits in rad when |a| ≥ 1 rad, in
 // mrad when |a| ≥ 1 mrad, and in µrad otherwise, for example "1.5708 rad",

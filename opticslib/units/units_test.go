@@ -83,3 +83,24 @@ func TestAngle(t *testing.T) {
 		}
 	}
 }
+
+// The SI prefixes are exact powers of ten (BIPM SI Brochure, 9th ed.,
+// table 7); dividing by them costs at most one rounding, hence rel 1e-15.
+func TestAngleSubmultiples(t *testing.T) {
+	for _, test := range []struct {
+		a          Angle
+		mrad, urad float64
+	}{
+		{25 * Milliradian, 25, 25000},
+		{402.853 * Microradian, 0.402853, 402.853},
+		{Radian, 1000, 1e6},
+		{-2 * Degree, -2 * math.Pi / 180 * 1e3, -2 * math.Pi / 180 * 1e6},
+	} {
+		if got := test.a.Milliradians(); !scalar.EqualWithinAbsOrRel(got, test.mrad, 0, 1e-15) {
+			t.Errorf("Angle(%g).Milliradians() = %.17g, want %.17g", float64(test.a), got, test.mrad)
+		}
+		if got := test.a.Microradians(); !scalar.EqualWithinAbsOrRel(got, test.urad, 0, 1e-15) {
+			t.Errorf("Angle(%g).Microradians() = %.17g, want %.17g", float64(test.a), got, test.urad)
+		}
+	}
+}

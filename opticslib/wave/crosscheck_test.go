@@ -35,8 +35,8 @@ func TestCrossCheckPropagateNumPy(t *testing.T) {
 	// Independent reference: an angular-spectrum propagator written with
 	// numpy.fft (pocketfft) and numpy.fft.fftfreq, with the kernels of the
 	// package doc (exp(−ikz) envelopes, Kogelnik & Li 1966; Goodman,
-	// Introduction to Fourier Optics, ch. 3–4), numpy 1.24 (Debian 12),
-	// testdata/crosscheck/wave_fft.py. It checks gonum dsp/fourier usage
+	// Introduction to Fourier Optics, ch. 3–4 [from memory]), numpy 1.24
+	// (Debian 12), testdata/crosscheck/wave_fft.py. It checks gonum dsp/fourier usage
 	// (normalisation, frequency order, odd and non-power-of-two N) and the
 	// kernel sign. The script also returns the analytic Gaussian beam at z,
 	// which fixes the sign convention from first principles: with the

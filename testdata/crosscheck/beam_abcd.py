@@ -21,7 +21,7 @@ Method, written from the textbooks rather than from the Go code:
 
 * Every element is written as a REDUCED ray-transfer matrix acting on
   (y, n*theta), det = 1 (A. Gerrard & J. M. Burch, Introduction to Matrix
-  Methods in Optics, 1975, ch. II; E. Hecht, Optics, 4th ed., sec. 6.2):
+  Methods in Optics, Wiley 1975, ch. II [from memory]):
       gap d in index n:          [[1, d/n], [0, 1]]
       thin lens f in index n:    [[1, 0], [-n/f, 1]]
       spherical surface n -> n2: [[1, 0], [-(n2 - n)/r, 1]]
@@ -29,13 +29,13 @@ Method, written from the textbooks rather than from the Go code:
   and the matrices are composed with numpy (@), last element leftmost.
 * The beam obeys the ABCD law for the reduced parameter q^ = q/n
   (Kogelnik & Li, Appl. Opt. 5, 1550 (1966); A. E. Siegman, Lasers, 1986,
-  ch. 20): q^2 = (A q^1 + B)/(C q^1 + D), and
+  ch. 20 [from memory]): q^2 = (A q^1 + B)/(C q^1 + D), and
       1/q^ = n/R - i lambda0/(pi w^2)
   so w = sqrt(-lambda0/(pi Im(1/q^))) and 1/R = Re(1/q^)/n.
   The Go package uses the un-reduced matrices with q itself; the two agree
   only if its documented index handling (q/n invariant) is right.
 * Gouy phase: the on-axis amplitude of the round beam after a system M is
-  proportional to 1/(A + B/q1) (Siegman, Lasers, ch. 20), so the Gouy phase
+  proportional to 1/(A + B/q1) (Siegman, Lasers, ch. 20 [from memory]), so the Gouy phase
   accumulated from the input plane is psi(z) = -arg(A(z) + B^(z)/q^1), with
   M(z) the cumulative reduced matrix from the input plane to z. Instead of
   summing per-element increments (as the Go code does) the script samples

@@ -23,7 +23,7 @@ quadrant (factor 4); lengths are scaled by the aperture radius a, which
 leaves T unchanged and keeps the integrand of order one.
 
 For a round beam (wx == wy == w) the closed form T = 1 - exp(-2a^2/w^2)
-(Siegman, Lasers, 1986, sec. 17.1) is also returned, computed as
+(Siegman, Lasers, 1986, sec. 17.1 [from memory]) is also returned, computed as
 -expm1(-2a^2/w^2) so that it is accurate for small a/w.
 """
 import json

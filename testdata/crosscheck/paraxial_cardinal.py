@@ -14,12 +14,12 @@ in.json:
 out.json:
   {"reference": "...", "cases": [{"power", "efl", "ffl", "bfl", "front_focal",
     "rear_focal", "front_principal", "rear_principal", "front_nodal",
-    "rear_nodal", "z1", "z2", "n_out", "hecht": {...} or null}]}
+    "rear_nodal", "z1", "z2", "n_out", "thick_lens_closed_form": {...} or null}]}
   All positions in metres from the input plane.
 
 Method 1 (every case): reduced ray-transfer matrices acting on (y, n u),
 det = 1 (A. Gerrard & J. M. Burch, Introduction to Matrix Methods in
-Optics, 1975, ch. II; E. Hecht, Optics, 4th ed., sec. 6.2):
+Optics, Wiley 1975, ch. II [from memory]):
     refraction at a sphere of curvature c, n -> n2:  [[1, 0], [-(n2 - n) c, 1]]
     thin lens f in index n:                          [[1, 0], [-n/f, 1]]
     transfer over d in index n:                      [[1, d/n], [0, 1]]
@@ -35,8 +35,9 @@ for the rays that must emerge in a given way), not from closed formulas:
   N, N':   the ray that leaves with the same (un-reduced) angle as it came
            in crosses the axis at N in object space and at N' in image space.
   EFL = 1/Phi, FFL = z1 - F, BFL = F' - z2.
-Method 2 (single thick lens in air only): Hecht's closed forms, Optics, 4th
-ed., eqs. (6.2)-(6.4):
+Method 2 (single thick lens in air only): the thick-lens closed forms of
+W. J. Smith, Modern Optical Engineering, 4th ed., McGraw-Hill 2008, ch. 2
+[from memory]:
     1/f = (nl - 1)[1/R1 - 1/R2 + (nl - 1) d/(nl R1 R2)]
     h1 = -f (nl - 1) d/(R2 nl),  h2 = -f (nl - 1) d/(R1 nl)
 with h1 measured from the front vertex to H and h2 from the back vertex to
@@ -122,8 +123,9 @@ def trace_cardinal(n_in, elements):
     }
 
 
-def hecht(n_in, elements):
-    """Hecht eqs. (6.2)-(6.4) for a single thick lens in air."""
+def thick_lens_closed_form(n_in, elements):
+    """Thick-lens closed forms (Smith, Modern Optical Engineering, ch. 2
+    [from memory]) for a single thick lens in air."""
     lenses = [e for e in elements if e["kind"] == "thick"]
     others = [e for e in elements if e["kind"] not in ("thick", "space")]
     if n_in != 1.0 or len(lenses) != 1 or others:
@@ -151,8 +153,8 @@ def main():
     for c in cases:
         r = trace_cardinal(c["n_in"], c["elements"])
         r = {k: float(v) for k, v in r.items()}
-        h = hecht(c["n_in"], c["elements"])
-        r["hecht"] = None if h is None else {k: float(v) for k, v in h.items()}
+        h = thick_lens_closed_form(c["n_in"], c["elements"])
+        r["thick_lens_closed_form"] = None if h is None else {k: float(v) for k, v in h.items()}
         res.append(r)
     ref = "reduced ABCD matrices and defining-ray traces, numpy %s, scipy %s" % (np.__version__, scipy.__version__)
     with open(sys.argv[2], "w") as fh:

@@ -28,7 +28,7 @@ so relative to exp(-i k z) it advances by
                (the second form avoids cancellation; same value)
                evanescent (kappa > k): exp(+i k z) exp(-|z| sqrt(kappa^2 - k^2))
     paraxial:  H = exp(+i z kappa^2 / (2k))   (kz - k ~ -kappa^2/(2k))
-(J. W. Goodman, Introduction to Fourier Optics, ch. 3-4). This is the
+(J. W. Goodman, Introduction to Fourier Optics, ch. 3-4 [from memory]). This is the
 convention in which the Gaussian beam of Kogelnik & Li,
     u(x, z) = sqrt(i zR / q) exp(-i k x^2 / (2 q)),  q = q_in + z
 (1-D slice), solves the paraxial wave equation; the script returns that

@@ -1,0 +1,45 @@
+package table
+
+import (
+	"math"
+	"testing"
+)
+
+// What is checked: alignment on runes (µ, ∞ and ′ are multi-byte), the
+// rule, padding of short rows, no trailing spaces; the project's own format.
+func TestText(t *testing.T) {
+	tb := Table{
+		Caption: "Waists",
+		Header:  []string{"element", "w0 (µm)", "R (mm)"},
+		Rows:    [][]string{{"L1", "12.5", "∞"}, {"after L2′", "3"}},
+	}
+	want := "Waists\n" +
+		"element    w0 (µm)  R (mm)\n" +
+		"---------  -------  ------\n" +
+		"L1         12.5     ∞\n" +
+		"after L2′  3\n"
+	if got := tb.Text(); got != want {
+		t.Errorf("Text() =\n%s\nwant\n%s", got, want)
+	}
+	if err := tb.Validate(); err != nil {
+		t.Errorf("Validate() = %v, want nil", err)
+	}
+	tb.Rows = append(tb.Rows, []string{"a", "b", "c", "d"})
+	if err := tb.Validate(); err == nil {
+		t.Errorf("Validate() with a 4-cell row = nil, want an error")
+	}
+}
+
+func TestFixed(t *testing.T) {
+	for _, test := range []struct {
+		v    float64
+		dec  int
+		want string
+	}{
+		{math.Inf(1), 3, "∞"}, {math.Inf(-1), 3, "−∞"}, {-0.0001, 2, "0.00"}, {math.Copysign(0, -1), 1, "0.0"}, {12.345, 1, "12.3"},
+	} {
+		if got := Fixed(test.v, test.dec); got != test.want {
+			t.Errorf("Fixed(%g, %d) = %q, want %q", test.v, test.dec, got, test.want)
+		}
+	}
+}
