@@ -16,7 +16,7 @@ var ErrMismatchedPlanes = errors.New("x and y parts of the beam must have the sa
 // x and y (Siegman, Lasers, 1986, ch. 17 and 20 [from memory]). The
 // x direction is the tangential plane ([paraxial.Tangential], Element.X,
 // [paraxial.System.MatrixTo]) and y the sagittal plane ([paraxial.Sagittal],
-// Element.Y, [paraxial.System.MatrixToY]). The intensity is
+// Element.Y, [paraxial.System.MatrixTo] with [paraxial.Sagittal]). The intensity is
 //
 //	I(x, y) = I0 exp(−2x²/Wx² − 2y²/Wy²),   I0 = 2P/(π Wx Wy)
 //
@@ -41,7 +41,7 @@ func (a Astigmatic) Validate() error {
 		return planeError(paraxial.Sagittal, err)
 	}
 	if a.X.Wavelength != a.Y.Wavelength {
-		return &ParamError{Param: "y wavelength λ0", Value: float64(a.Y.Wavelength), Length: true, Reason: "x wavelength is " + a.X.Wavelength.String(), Err: ErrMismatchedPlanes}
+		return &ParamError{Param: "y wavelength λ0", Value: a.Y.Wavelength, Reason: "x wavelength is " + a.X.Wavelength.String(), Err: ErrMismatchedPlanes}
 	}
 	if a.X.Index != a.Y.Index {
 		return &ParamError{Param: "y index n", Value: a.Y.Index, Reason: "x index is " + formatFloat(a.X.Index), Err: ErrMismatchedPlanes}

@@ -21,7 +21,7 @@ func TestFromRadiusR08(t *testing.T) {
 	// 7 significant digits; the waist radius depends on them with a
 	// condition number of about 3, so rel 2e-6 against the quoted values.
 	const quoted = 2e-6
-	g, err := FromRadius(0.9482416*mm, 2.770224, 632.8*nm, 1)
+	g, err := FromProfile(ProfileSpec{Radius: 0.9482416 * mm, WavefrontRadius: 2.770224, Wavelength: 632.8 * nm})
 	if err != nil {
 		t.Fatalf("FromRadius error: %v", err)
 	}
@@ -39,8 +39,8 @@ func TestFromRadiusR08(t *testing.T) {
 		w0 := units.Length(1e-6 + 1e-3*rng.Float64())
 		off := units.Length(2 * (rng.Float64() - 0.5))
 		g0 := mustWaist(t, w0, off, 1064*nm, n)
-		r := g0.Curvature()
-		g1, err := FromRadius(g0.Radius(), r, 1064*nm, n)
+		r := g0.WavefrontRadius()
+		g1, err := FromProfile(ProfileSpec{Radius: g0.Radius(), WavefrontRadius: r, Wavelength: 1064 * nm, Index: n})
 		if err != nil {
 			t.Errorf("case %d: FromRadius(%v, %v) error: %v", i, g0.Radius(), r, err)
 			continue
@@ -50,7 +50,7 @@ func TestFromRadiusR08(t *testing.T) {
 		}
 	}
 	// A flat wavefront is a waist.
-	flat, err := FromRadius(1*mm, units.Length(math.Inf(1)), 633*nm, 1)
+	flat, err := FromProfile(ProfileSpec{Radius: 1 * mm, WavefrontRadius: units.Length(math.Inf(1)), Wavelength: 633 * nm})
 	if err != nil || real(flat.Q) != 0 || flat.WaistRadius() != 1*mm {
 		t.Errorf("FromRadius(1 mm, +Inf) = %v, %v; want a 1 mm waist at the plane", flat, err)
 	}
@@ -93,11 +93,11 @@ func TestM2Siegman(t *testing.T) {
 	}{
 		{"waist kept", float64(g.WaistRadius()), 0.3e-3},
 		{"zR", float64(g.RayleighRange()), zR},
-		{"θ", float64(g.Divergence()), m2 * float64(lambda) / (math.Pi * 0.3e-3)},
+		{"θ", float64(g.HalfDivergence()), m2 * float64(lambda) / (math.Pi * 0.3e-3)},
 		{"W(z)", float64(gz.Radius()), 0.3e-3 * math.Sqrt(1+(z/zR)*(z/zR))},
 		{"W = M·w_embedded", float64(gz.Radius()), math.Sqrt(m2) * float64(emb.Radius())},
-		{"BPP at input", float64(g.WaistRadius()) * float64(g.Divergence()), bpp},
-		{"BPP after the system, n·W0·θ", out.Index * float64(last.Radius) * float64(out.Divergence()), bpp},
+		{"BPP at input", float64(g.WaistRadius()) * float64(g.HalfDivergence()), bpp},
+		{"BPP after the system, n·W0·θ", out.Index * float64(last.Radius) * float64(out.HalfDivergence()), bpp},
 		{"M² carried", out.BeamQuality(), m2},
 	} {
 		if !scalar.EqualWithinAbsOrRel(test.got, test.want, 0, tol) {
@@ -114,16 +114,16 @@ func TestBadInput(t *testing.T) {
 	// the parameter and its value.
 	nan := math.NaN()
 	good := mustWaist(t, 1*mm, 0, 633*nm, 1)
-	_, e1 := FromWaist(0, 0, 633*nm, 1)
-	_, e2 := FromWaist(units.Length(nan), 0, 633*nm, 1)
-	_, e3 := FromWaist(1*mm, 0, -633*nm, 1)
-	_, e4 := FromWaist(1*mm, 0, units.Length(nan), 1)
+	_, e1 := FromWaist(WaistSpec{WaistRadius: 0, Wavelength: 633 * nm})
+	_, e2 := FromWaist(WaistSpec{WaistRadius: units.Length(nan), Wavelength: 633 * nm})
+	_, e3 := FromWaist(WaistSpec{WaistRadius: 1 * mm, Wavelength: -633 * nm})
+	_, e4 := FromWaist(WaistSpec{WaistRadius: 1 * mm, Wavelength: units.Length(nan)})
 	_, e5 := good.WithM2(0.9)
 	_, e6 := good.WithM2(nan)
-	_, e7 := FromRadius(-2*mm, 1, 633*nm, 1)
-	_, e8 := FromRadius(2*mm, 0, 633*nm, 1)
-	_, e9 := FromRadius(2*mm, units.Length(nan), 633*nm, 1)
-	_, e10 := FromWaist(1*mm, 0, 633*nm, nan)
+	_, e7 := FromProfile(ProfileSpec{Radius: -2 * mm, WavefrontRadius: 1, Wavelength: 633 * nm})
+	_, e8 := FromProfile(ProfileSpec{Radius: 2 * mm, WavefrontRadius: 0, Wavelength: 633 * nm})
+	_, e9 := FromProfile(ProfileSpec{Radius: 2 * mm, WavefrontRadius: units.Length(nan), Wavelength: 633 * nm})
+	_, e10 := FromWaist(WaistSpec{WaistRadius: 1 * mm, Wavelength: 633 * nm, Index: nan})
 	bad := good
 	bad.M2 = 0.5
 	e11 := bad.Validate()
@@ -136,15 +136,15 @@ func TestBadInput(t *testing.T) {
 		want string
 		is   error
 	}{
-		{e1, "beam: waist radius w0 = 0 m: must be positive and finite", nil},
-		{e2, "beam: waist radius w0 = NaN m: must be positive and finite", nil},
+		{e1, "beam: waist radius w0 = 0 m: must be positive and finite (or give the waist diameter 2w0)", nil},
+		{e2, "beam: waist radius w0 = NaN m: must be positive and finite (or give the waist diameter 2w0)", nil},
 		{e3, "beam: wavelength λ0 = -633 nm: must be positive and finite", nil},
 		{e4, "beam: wavelength λ0 = NaN m: must be positive and finite", nil},
 		{e5, "beam: M² = 0.9: must be at least 1 and finite", nil},
 		{e6, "beam: M² = NaN: must be at least 1 and finite", nil},
-		{e7, "beam: beam radius w = -2 mm: must be positive and finite", nil},
-		{e8, "beam: radius of curvature R = 0 m: must be nonzero (±Inf for a flat wavefront)", nil},
-		{e9, "beam: radius of curvature R = NaN m: must be nonzero (±Inf for a flat wavefront)", nil},
+		{e7, "beam: beam radius w = -2 mm: must be positive and finite (or give the beam diameter 2w)", nil},
+		{e8, "beam: wavefront radius R = 0 m: must be nonzero (±Inf, paraxial.Flat, for a flat wavefront)", nil},
+		{e9, "beam: wavefront radius R = NaN m: must be nonzero (±Inf, paraxial.Flat, for a flat wavefront)", nil},
 		{e10, "beam: index n = NaN: must be positive and finite", nil},
 		{e11, "beam: M² = 0.5: must be at least 1 and finite (0 means 1)", nil},
 		{e12, "beam: M² = 0.5: must be at least 1 and finite (0 means 1)", nil},
@@ -217,8 +217,8 @@ func TestCylindricalLensSelf(t *testing.T) {
 				t.Errorf("%v: AtXY(%g) error: %v", p, z, err)
 				continue
 			}
-			if !scalar.EqualWithinAbsOrRel(c.W[i], float64(a.X.Radius()), 0, 1e-12) || !scalar.EqualWithinAbsOrRel(c.WY[i], float64(a.Y.Radius()), 0, 1e-12) {
-				t.Errorf("%v: z = %g: caustic (%g, %g), AtXY (%g, %g)", p, z, c.W[i], c.WY[i], float64(a.X.Radius()), float64(a.Y.Radius()))
+			if !scalar.EqualWithinAbsOrRel(float64(c.W[i]), float64(a.X.Radius()), 0, 1e-12) || !scalar.EqualWithinAbsOrRel(float64(c.WY[i]), float64(a.Y.Radius()), 0, 1e-12) {
+				t.Errorf("%v: z = %g: caustic (%g, %g), AtXY (%g, %g)", p, z, float64(c.W[i]), float64(c.WY[i]), float64(a.X.Radius()), float64(a.Y.Radius()))
 			}
 		}
 		// The focused plane has the input waist and the new focus; the
@@ -248,10 +248,10 @@ func TestAstigmaticGouy(t *testing.T) {
 		t.Fatalf("Sample error: %v", err)
 	}
 	for i, z := range c.Z {
-		wantX := math.Atan(z / float64(gx.RayleighRange()))
-		wantY := math.Atan(z / float64(gy.RayleighRange()))
-		if !scalar.EqualWithinAbsOrRel(c.Gouy[i], wantX, 1e-15, 1e-12) || !scalar.EqualWithinAbsOrRel(c.GouyY[i], wantY, 1e-15, 1e-12) {
-			t.Errorf("z = %g: Gouy (%g, %g), want (%g, %g)", z, c.Gouy[i], c.GouyY[i], wantX, wantY)
+		wantX := math.Atan(float64(z / gx.RayleighRange()))
+		wantY := math.Atan(float64(z / gy.RayleighRange()))
+		if !scalar.EqualWithinAbsOrRel(float64(c.Gouy[i]), wantX, 1e-15, 1e-12) || !scalar.EqualWithinAbsOrRel(float64(c.GouyY[i]), wantY, 1e-15, 1e-12) {
+			t.Errorf("z = %g: Gouy (%g, %g), want (%g, %g)", z, float64(c.Gouy[i]), float64(c.GouyY[i]), wantX, wantY)
 		}
 	}
 	round, err := Sample(mustBuild(t, paraxial.NewBuilder().Space(0.1).ThinLens(0.05).Space(0.1)), gx, 21)
@@ -322,8 +322,8 @@ func TestExtremesProperty(t *testing.T) {
 		}
 		minX, maxX, minY, maxY := math.Inf(1), 0.0, math.Inf(1), 0.0
 		for j := range c.Z {
-			minX, maxX = math.Min(minX, c.W[j]), math.Max(maxX, c.W[j])
-			minY, maxY = math.Min(minY, c.WY[j]), math.Max(maxY, c.WY[j])
+			minX, maxX = math.Min(minX, float64(c.W[j])), math.Max(maxX, float64(c.W[j]))
+			minY, maxY = math.Min(minY, float64(c.WY[j])), math.Max(maxY, float64(c.WY[j]))
 		}
 		for _, test := range []struct {
 			name      string
@@ -368,8 +368,8 @@ func TestSampleAstigmaticProperty(t *testing.T) {
 				t.Errorf("case %d: AtXY error: %v", i, err)
 				break
 			}
-			if !scalar.EqualWithinAbsOrRel(c.W[j], float64(a.X.Radius()), 0, 1e-10) || !scalar.EqualWithinAbsOrRel(c.WY[j], float64(a.Y.Radius()), 0, 1e-10) || c.Index[j] != a.X.Index {
-				t.Errorf("case %d z = %g: caustic (%g, %g, n %g), AtXY (%g, %g, n %g)", i, z, c.W[j], c.WY[j], c.Index[j], float64(a.X.Radius()), float64(a.Y.Radius()), a.X.Index)
+			if !scalar.EqualWithinAbsOrRel(float64(c.W[j]), float64(a.X.Radius()), 0, 1e-10) || !scalar.EqualWithinAbsOrRel(float64(c.WY[j]), float64(a.Y.Radius()), 0, 1e-10) || c.Index[j] != a.X.Index {
+				t.Errorf("case %d z = %g: caustic (%g, %g, n %g), AtXY (%g, %g, n %g)", i, z, float64(c.W[j]), float64(c.WY[j]), c.Index[j], float64(a.X.Radius()), float64(a.Y.Radius()), a.X.Index)
 				break
 			}
 		}

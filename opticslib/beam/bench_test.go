@@ -25,7 +25,7 @@ func BenchmarkSample(b *testing.B) {
 	if err != nil {
 		b.Fatal(err)
 	}
-	in, err := FromWaist(0.5*mm, 0, 1064*nm, 1)
+	in, err := FromWaist(WaistSpec{WaistRadius: 0.5 * mm, Wavelength: 1064 * nm})
 	if err != nil {
 		b.Fatal(err)
 	}

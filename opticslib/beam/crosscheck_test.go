@@ -208,7 +208,7 @@ func TestCrossCheckABCD(t *testing.T) {
 	for range 40 {
 		sys, els, nIn := xcRandomSystem(t, rng)
 		lambda := []float64{633e-9, 1064e-9, 1550e-9}[rng.IntN(3)]
-		g, err := beam.FromWaist(units.Length(0.1e-3+1.5e-3*rng.Float64()), units.Length(0.4*(rng.Float64()-0.5)), units.Length(lambda), nIn)
+		g, err := beam.FromWaist(beam.WaistSpec{WaistRadius: units.Length(0.1e-3 + 1.5e-3*rng.Float64()), WaistZ: units.Length(0.4 * (rng.Float64() - 0.5)), Wavelength: units.Length(lambda), Index: nIn})
 		if err != nil {
 			t.Fatalf("FromWaist error: %v", err)
 		}
@@ -243,7 +243,7 @@ func TestCrossCheckABCD(t *testing.T) {
 			}
 			wantQ := complex(r.Q[j][0], r.Q[j][1])
 			w := float64(got.Radius())
-			invR := got.InverseCurvature()
+			invR := got.WavefrontCurvature()
 			scale := cmplx.Abs(1 / wantQ)
 			maxW = math.Max(maxW, math.Abs(w-r.W[j])/r.W[j])
 			maxInvR = math.Max(maxInvR, math.Abs(invR-r.InvR[j])/scale)
@@ -252,7 +252,7 @@ func TestCrossCheckABCD(t *testing.T) {
 				t.Errorf("case %d: At(z = %g).Radius() = %.15g, want %.15g (reduced ABCD, numpy)", i, z, w, r.W[j])
 			}
 			if !scalar.EqualWithinAbs(invR, r.InvR[j], relTol*scale) {
-				t.Errorf("case %d: At(z = %g).InverseCurvature() = %.15g, want %.15g (reduced ABCD, numpy)", i, z, invR, r.InvR[j])
+				t.Errorf("case %d: At(z = %g).WavefrontCurvature() = %.15g, want %.15g (reduced ABCD, numpy)", i, z, invR, r.InvR[j])
 			}
 			if cmplx.Abs(got.Q-wantQ) > relTol*cmplx.Abs(wantQ) {
 				t.Errorf("case %d: At(z = %g).Q = %v, want %v (reduced ABCD, numpy)", i, z, got.Q, wantQ)
@@ -305,7 +305,7 @@ func TestCrossCheckGouy(t *testing.T) {
 		if err != nil {
 			t.Fatalf("Build() error: %v", err)
 		}
-		g, err := beam.FromWaist(units.Length(0.2e-3+0.6e-3*rng.Float64()), units.Length(0.1*rng.Float64()), 1064e-9, 1)
+		g, err := beam.FromWaist(beam.WaistSpec{WaistRadius: units.Length(0.2e-3 + 0.6e-3*rng.Float64()), WaistZ: units.Length(0.1 * rng.Float64()), Wavelength: 1064e-9})
 		if err != nil {
 			t.Fatalf("FromWaist error: %v", err)
 		}
@@ -313,8 +313,13 @@ func TestCrossCheckGouy(t *testing.T) {
 		if err != nil {
 			t.Fatalf("Sample error: %v", err)
 		}
-		samples = append(samples, c.Gouy)
-		cases = append(cases, xcBeamCase{NIn: 1, Lambda0: 1064e-9, QIn: [2]float64{real(g.Q), imag(g.Q)}, Elements: els, Z: []float64{}, GouyZ: c.Z})
+		gouy := make([]float64, len(c.Gouy))
+		zs := make([]float64, len(c.Z))
+		for i := range c.Z {
+			gouy[i], zs[i] = float64(c.Gouy[i]), float64(c.Z[i])
+		}
+		samples = append(samples, gouy)
+		cases = append(cases, xcBeamCase{NIn: 1, Lambda0: 1064e-9, QIn: [2]float64{real(g.Q), imag(g.Q)}, Elements: els, Z: []float64{}, GouyZ: zs})
 	}
 	var ref struct {
 		Reference string         `json:"reference"`

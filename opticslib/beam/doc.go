@@ -65,28 +65,47 @@
 //
 // Every [paraxial.Element] has a tangential (X) and a sagittal (Y) matrix.
 // An [Astigmatic] beam holds an independent Gaussian for each, and the
-// system functions ([AtXY], [Waists], [Sample], [Extremes], [Apertures])
+// system functions ([AtXY], [Waists], [Sample], [Extremes], [Clipping])
 // take an [Input]: a [Gaussian] for a round beam, or an [Astigmatic] one.
 // The x part follows the X matrices and the y part the Y matrices, which
 // is what cylindrical lenses and mirrors used off normal incidence need.
 // [At] returns a single Gaussian and refuses ([ErrAstigmaticSystem]) a
 // plane where the two matrices differ.
 //
-// # Apertures, irradiance and laser safety
+// # Clipping, irradiance and laser safety
 //
-// [Apertures] checks every element with a clear aperture: the fraction a
-// centred beam passes, 1 − exp(−2a²/w²) for a round beam, and a flag below
-// a threshold (default 99 %). [Caustic.Irradiance] gives the on-axis peak
-// irradiance 2P/(π wx wy) along the path. Wherever irradiance or focused
-// power is shown, show [SafetyNote] with it: these are beam-optics
-// estimates, never exposure limits or a safety clearance; local
-// laser-safety rules and the responsible laser safety officer decide.
+// [Clipping] checks every clear aperture of a system: the fraction of the
+// power a centred beam passes ([Transmission]: 1 − exp(−2a²/w²) for a
+// round beam and a centred circle; closed forms for slits; quadrature for
+// offset and elliptical cases), with the footprint of the beam on a tilted
+// part stretched by 1/cos θ, tubes checked along their length, and a flag
+// below a threshold (default 99 %, or the opening's own for a pinhole or
+// slit meant to clip). [Caustic.Irradiance] gives the on-axis peak
+// irradiance 2P/(π wx wy) along the path and its exact maximum. Wherever
+// irradiance or focused power is shown, show [SafetyNote] with it: these
+// are beam-optics estimates, never exposure limits or a safety clearance;
+// local laser-safety rules and the responsible laser safety officer
+// decide.
+//
+// # Constructors
+//
+// Beams are entered with a spec whose fields say what each number is:
+// [FromWaist] with a [WaistSpec] (waist radius or diameter, waist position,
+// vacuum wavelength, M², medium index), [FromWaists] for elliptical and
+// astigmatic beams, [FromProfile] with a [ProfileSpec] for a beam measured
+// at one plane. WaistZ is the waist's position relative to the plane where
+// the beam is given, positive when the waist lies after it.
+// [Gaussian.WithM2] keeps the waist radius and position and changes the
+// Rayleigh range. [Gaussian.HalfDivergence] is the half-angle θ = M²λ/(πw0)
+// and [Gaussian.FullDivergence] the full angle 2θ that ISO 11146-1 quotes.
+// The constructors reject beams beyond [MaxDivergence] (the paraxial
+// range).
 //
 // # Errors and panics
 //
-// Constructors ([FromWaist], [FromRadius], [FromQ], [Gaussian.WithM2])
+// Constructors ([FromWaist], [FromWaists], [FromProfile], [FromQ], [Gaussian.WithM2])
 // and the system functions ([At], [AtXY], [Waists], [Sample],
-// [SampleRange], [Extremes], [Apertures], [Caustic.Irradiance]) validate
+// [SampleRange], [Extremes], [Clipping], [Caustic.Irradiance]) validate
 // their input and return a [*ParamError] or a sentinel error; they never panic on user data and never
 // return NaN or ±Inf in a result, except the documented +Inf radius of
 // curvature exactly at a waist. The methods of [Gaussian] are pure

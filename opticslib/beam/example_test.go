@@ -47,15 +47,15 @@ import (
 
 func ExampleFromWaist() {
 	// A HeNe beam with a 0.5 mm waist, 2 m after the waist.
-	g, err := beam.FromWaist(0.5*units.Millimeter, 0, 632.8*units.Nanometer, 1)
+	g, err := beam.FromWaist(beam.WaistSpec{WaistRadius: 0.5 * units.Millimeter, Wavelength: 632.8 * units.Nanometer})
 	if err != nil {
 		fmt.Println(err)
 		return
 	}
-	fmt.Printf("zR = %.6f m, θ = %.6f mrad\n", g.RayleighRange().Meters(), float64(g.Divergence()/units.Milliradian))
+	fmt.Printf("zR = %.6f m, θ = %.6f mrad\n", g.RayleighRange().Meters(), float64(g.HalfDivergence()/units.Milliradian))
 	g = g.Transform(paraxial.Space(2*units.Meter), 1)
 	fmt.Printf("w = %.7f mm, R = %.6f m, ψ = %.6f rad\n",
-		g.Radius().Millimeters(), g.Curvature().Meters(), g.GouyPhase().Radians())
+		g.Radius().Millimeters(), g.WavefrontRadius().Meters(), g.GouyPhase().Radians())
 	// Output:
 	// zR = 1.241148 m, θ = 0.402853 mrad
 	// w = 0.9482416 mm, R = 2.770224 m, ψ = 1.015386 rad
@@ -63,7 +63,7 @@ func ExampleFromWaist() {
 
 func ExampleWaists() {
 	// A 0.2 mm waist 200 mm before a 100 mm lens (S. A. Self 1983).
-	in, _ := beam.FromWaist(0.2*units.Millimeter, 0, 632.8*units.Nanometer, 1)
+	in, _ := beam.FromWaist(beam.WaistSpec{WaistRadius: 0.2 * units.Millimeter, Wavelength: 632.8 * units.Nanometer})
 	sys, _ := paraxial.NewBuilder().
 		Space(200 * units.Millimeter).
 		ThinLens(100 * units.Millimeter).Label("L").
@@ -83,7 +83,7 @@ func ExampleWaists() {
 func ExampleSample() {
 	// A collimated 1 mm beam focused by a 200 mm lens; the sampler adds
 	// the element positions and the real waist to the 4 requested points.
-	in, _ := beam.FromWaist(1*units.Millimeter, 0, 1064*units.Nanometer, 1)
+	in, _ := beam.FromWaist(beam.WaistSpec{WaistRadius: 1 * units.Millimeter, Wavelength: 1064 * units.Nanometer})
 	sys, _ := paraxial.NewBuilder().
 		Space(100 * units.Millimeter).
 		ThinLens(200 * units.Millimeter).
@@ -95,7 +95,7 @@ func ExampleSample() {
 		return
 	}
 	for i := range c.Z {
-		fmt.Printf("z = %5.1f mm  w = %.4f mm  n = %.1f\n", c.Z[i]*1e3, c.W[i]*1e3, c.Index[i])
+		fmt.Printf("z = %5.1f mm  w = %.4f mm  n = %.1f\n", float64(c.Z[i])*1e3, float64(c.W[i])*1e3, c.Index[i])
 	}
 	for _, f := range c.Foci {
 		fmt.Printf("focus at z = %.3f mm, w0 = %.2f µm\n", f.Z.Millimeters(), f.Radius.Micrometers())
@@ -112,7 +112,7 @@ func ExampleSample() {
 
 func ExampleGaussian_WithM2() {
 	// A diode module: 0.4 mm waist at the exit window, M² = 1.5.
-	g, err := beam.FromWaist(0.4*units.Millimeter, 0, 808*units.Nanometer, 1)
+	g, err := beam.FromWaist(beam.WaistSpec{WaistRadius: 0.4 * units.Millimeter, Wavelength: 808 * units.Nanometer})
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -124,7 +124,7 @@ func ExampleGaussian_WithM2() {
 	}
 	far := g.Transform(paraxial.Space(1*units.Meter), 1)
 	fmt.Printf("zR = %.1f mm, θ = %.3f mrad, w(1 m) = %.3f mm\n",
-		g.RayleighRange().Millimeters(), float64(g.Divergence()/units.Milliradian), far.Radius().Millimeters())
+		g.RayleighRange().Millimeters(), float64(g.HalfDivergence()/units.Milliradian), far.Radius().Millimeters())
 	_, err = g.WithM2(0.8)
 	fmt.Println(err)
 	// Output:
@@ -134,7 +134,7 @@ func ExampleGaussian_WithM2() {
 
 func ExampleAtXY() {
 	// A round beam through a cylindrical lens that focuses x only.
-	in, _ := beam.FromWaist(1*units.Millimeter, 0, 633*units.Nanometer, 1)
+	in, _ := beam.FromWaist(beam.WaistSpec{WaistRadius: 1 * units.Millimeter, Wavelength: 633 * units.Nanometer})
 	sys, err := paraxial.NewBuilder().
 		CylindricalLens(200*units.Millimeter, paraxial.Tangential).
 		Space(200 * units.Millimeter).Build()
@@ -155,34 +155,36 @@ func ExampleAtXY() {
 	// beam: the system acts differently in x and y here; use AtXY
 }
 
-func ExampleApertures() {
-	// A 3 mm beam meets an 8 mm-diameter mirror mount and a 1-inch lens.
-	in, _ := beam.FromWaist(3*units.Millimeter, 0, 1064*units.Nanometer, 1)
+func ExampleClipping() {
+	// A 3 mm beam meets an 8 mm-diameter mirror at 45° and a 1-inch lens;
+	// the mirror's round clear aperture sees a footprint stretched to
+	// 3 mm/cos 45° = 4.24 mm in the plane of incidence.
+	in, _ := beam.FromWaist(beam.WaistSpec{WaistRadius: 3 * units.Millimeter, Wavelength: 1064 * units.Nanometer})
 	sys, _ := paraxial.NewBuilder().
-		Space(100*units.Millimeter).
-		Mirror(paraxial.Flat, 45*units.Degree).Label("fold mirror").Aperture(4 * units.Millimeter).
 		Space(100 * units.Millimeter).
-		ThinLens(200 * units.Millimeter).Label("L1").Aperture(12.7 * units.Millimeter).
+		FlatMirror(45 * units.Degree).Label("fold mirror").Aperture(paraxial.ClearDiameter(8 * units.Millimeter)).
+		Space(100 * units.Millimeter).
+		ThinLens(200 * units.Millimeter).Label("L1").Aperture(paraxial.OneInchOptic()).
 		Space(200 * units.Millimeter).Build()
-	clips, err := beam.Apertures(sys, in, 0) // default threshold 99 %
+	clips, err := beam.Clipping(sys, in, 0) // default threshold 99 %
 	if err != nil {
 		fmt.Println(err)
 		return
 	}
 	for _, c := range clips {
-		fmt.Printf("%s: %.4f %v\n", c.Label, c.Transmission, c.Low)
+		fmt.Printf("%s: %.4f %v\n", c.Name, c.Transmission, c.Low)
 		if c.Low {
 			fmt.Println(c.Warning())
 		}
 	}
 	// Output:
-	// fold mirror: 0.9714 true
-	// fold mirror (z = 100 mm): clear aperture radius 4 mm passes 97.14 % of the beam (w = 3 mm), below 99.00 %
-	// L1: 1.0000 false
+	// FlatMirror "fold mirror" (call 2): 0.9040 true
+	// FlatMirror "fold mirror" (call 2) at z = 100 mm: ⌀ 8 mm at 45° passes 90.40 % of the beam (wx = 3 mm, footprint 4.24 mm, wy = 3 mm), below 99.00 %
+	// ThinLens "L1" (call 4): 1.0000 false
 }
 
 func ExampleCaustic_Irradiance() {
-	in, _ := beam.FromWaist(2*units.Millimeter, 0, 1064*units.Nanometer, 1)
+	in, _ := beam.FromWaist(beam.WaistSpec{WaistRadius: 2 * units.Millimeter, Wavelength: 1064 * units.Nanometer})
 	sys, _ := paraxial.NewBuilder().ThinLens(100 * units.Millimeter).Space(200 * units.Millimeter).Build()
 	c, err := beam.Sample(sys, in, 100)
 	if err != nil {
@@ -198,13 +200,13 @@ func ExampleCaustic_Irradiance() {
 	// ends with beam.SafetyNote.
 	fmt.Println(ir.Summary())
 	// Output:
-	// Peak irradiance 2P/(π wx wy) for P = 20 mW: at most 4.44e+07 W/m² (4.44e+03 W/cm²) at z = 99.9928 mm, where w = 16.9 µm.
+	// Peak irradiance 2P/(π wx wy) for P = 20 mW: highest 4.44e+07 W/m² (4.44e+03 W/cm²), at z = 99.9928 mm where w = 16.9 µm.
 	//
 	// Laser safety: focused beams reach hazardous irradiance at powers far below those of most laboratory lasers, and lenses and windows throw stray reflections. These numbers are beam-optics estimates, not exposure limits and not a safety clearance. Follow your local laser-safety rules and the instructions of your responsible laser safety officer, and wear the eyewear they specify.
 }
 
 func ExampleExtremes() {
-	in, _ := beam.FromWaist(0.5*units.Millimeter, 0, 1064*units.Nanometer, 1)
+	in, _ := beam.FromWaist(beam.WaistSpec{WaistRadius: 0.5 * units.Millimeter, Wavelength: 1064 * units.Nanometer})
 	sys, _ := paraxial.NewBuilder().
 		Space(50 * units.Millimeter).ThinLens(50 * units.Millimeter).
 		Space(200 * units.Millimeter).ThinLens(150 * units.Millimeter).
@@ -220,11 +222,11 @@ func ExampleExtremes() {
 	// smallest 33.87 µm at 100.00 mm, largest 1.500 mm at 250 mm
 }
 
-func ExampleFromRadius() {
+func ExampleFromProfile() {
 	// A beam measured 2 m past a HeNe waist (R08): w = 0.9482416 mm on a
 	// profiler, R = 2.770224 m from a wavefront sensor. The waist is found
 	// behind the plane.
-	g, err := beam.FromRadius(0.9482416*units.Millimeter, 2.770224*units.Meter, 632.8*units.Nanometer, 1)
+	g, err := beam.FromProfile(beam.ProfileSpec{Radius: 0.9482416 * units.Millimeter, WavefrontRadius: 2.770224 * units.Meter, Wavelength: 632.8 * units.Nanometer})
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -239,7 +241,7 @@ func ExampleAt() {
 	// beam 150 mm after the lens (Self's formula and Kogelnik & Li's w(z),
 	// R(z); the ABCD law is cross-checked with NumPy on seeded cases in
 	// crosscheck_test.go).
-	in, _ := beam.FromWaist(1*units.Millimeter, 0, 1064*units.Nanometer, 1)
+	in, _ := beam.FromWaist(beam.WaistSpec{WaistRadius: 1 * units.Millimeter, Wavelength: 1064 * units.Nanometer})
 	sys, _ := paraxial.NewBuilder().
 		Space(100 * units.Millimeter).ThinLens(200 * units.Millimeter).
 		Space(200 * units.Millimeter).Build()
@@ -249,7 +251,7 @@ func ExampleAt() {
 		return
 	}
 	fmt.Printf("w = %.4f mm, R = %.1f mm, waist %.2f mm ahead\n",
-		g.Radius().Millimeters(), g.Curvature().Millimeters(), g.WaistOffset().Millimeters())
+		g.Radius().Millimeters(), g.WavefrontRadius().Millimeters(), g.WaistOffset().Millimeters())
 	// Output:
 	// w = 0.2569 mm, R = -53.2 mm, waist 49.54 mm ahead
 }

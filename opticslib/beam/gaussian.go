@@ -4,8 +4,8 @@ import (
 	"errors"
 	"math"
 	"math/cmplx"
-	"strconv"
 
+	"github.com/beamnote/beamnote/opticslib/internal/errtext"
 	"github.com/beamnote/beamnote/opticslib/paraxial"
 	"github.com/beamnote/beamnote/opticslib/units"
 )
@@ -18,37 +18,23 @@ var ErrNotPhysical = errors.New("not a physical beam (need finite q with Im q > 
 //
 //	beam: waist radius w0 = -1 mm: must be positive and finite
 //
-// Value is in SI units (metres for lengths, printed with units.Length when
-// Length is true).
+// with the value printed in its unit.
 type ParamError struct {
 	// Param names the parameter, for example "waist radius w0".
 	Param string
-	// Value is the offending value, in SI units (metres for lengths).
-	Value float64
-	// Length is true when Value is a length (printed with units.Length).
-	Length bool
+	// Value is the offending value in SI units: a units.Length, a
+	// units.Angle, a float64 or an int; nil when there is none.
+	Value any
 	// Reason states the requirement that Value fails, or is empty.
 	Reason string
 	// Err is a wrapped sentinel ([ErrNotPhysical], [ErrIndexMismatch],
-	// [ErrMismatchedPlanes], paraxial.ErrNonFinite) or nil.
+	// [ErrMismatchedPlanes], [ErrNotParaxial], a paraxial sentinel) or nil.
 	Err error
 }
 
 // Error implements the error interface.
 func (e *ParamError) Error() string {
-	s := "beam: " + e.Param + " = "
-	if e.Length {
-		s += units.Length(e.Value).String()
-	} else {
-		s += strconv.FormatFloat(e.Value, 'g', -1, 64)
-	}
-	if e.Reason != "" {
-		s += ": " + e.Reason
-	}
-	if e.Err != nil {
-		s += ": " + e.Err.Error()
-	}
-	return s
+	return errtext.Message("beam", "", e.Param, e.Value, e.Reason, e.Err)
 }
 
 // Unwrap returns e.Err.
@@ -73,7 +59,7 @@ func (e *ParamError) Unwrap() error { return e.Err }
 // value of M2 means 1, a pure TEM₀₀ beam, so a literal Gaussian{Q, λ0, n}
 // is a TEM₀₀ beam.
 //
-// Construct values with [FromWaist], [FromRadius] or [FromQ] and
+// Construct values with [FromWaist], [FromProfile] or [FromQ] and
 // [Gaussian.WithM2], which validate them.
 type Gaussian struct {
 	Q          complex128
@@ -86,7 +72,7 @@ func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 
 func checkLight(lambda0 units.Length, n float64) error {
 	if !finite(float64(lambda0)) || lambda0 <= 0 {
-		return &ParamError{Param: "wavelength λ0", Value: float64(lambda0), Length: true, Reason: "must be positive and finite"}
+		return &ParamError{Param: "wavelength λ0", Value: lambda0, Reason: "must be positive and finite"}
 	}
 	if !finite(n) || n <= 0 {
 		return &ParamError{Param: "index n", Value: n, Reason: "must be positive and finite"}
@@ -94,72 +80,208 @@ func checkLight(lambda0 units.Length, n float64) error {
 	return nil
 }
 
-// FromWaist returns the beam, in a medium of index n, at a plane located
-// waistOffset before its waist: a beam with waist radius w0 (1/e² intensity
-// radius, metres) at distance waistOffset (metres; > 0 when the waist lies
-// ahead of the plane, < 0 when behind, as returned by
-// [Gaussian.WaistOffset]). λ0 is the vacuum wavelength in metres.
-//
-//	q = −waistOffset + i π w0² n/λ0
-//
-// (Kogelnik & Li 1966.) It returns a [*ParamError] unless w0, λ0 and n are
-// positive and finite and waistOffset is finite.
-func FromWaist(w0, waistOffset, lambda0 units.Length, n float64) (Gaussian, error) {
-	if !finite(float64(w0)) || w0 <= 0 {
-		return Gaussian{}, &ParamError{Param: "waist radius w0", Value: float64(w0), Length: true, Reason: "must be positive and finite"}
+// ErrNotParaxial is returned (wrapped in a [*ParamError]) by the
+// constructors for a beam whose far-field half-angle exceeds
+// [MaxDivergence].
+var ErrNotParaxial = errors.New("outside the paraxial range of the Gaussian-beam model")
+
+// MaxDivergence is the largest far-field half-angle θ = M²λ0/(n π w0) the
+// constructors accept: 0.5 rad (29°), a waist radius below about 0.64
+// λ0/n. The Gaussian beam solves the paraxial wave equation; the
+// corrections to it grow as (θ/2)² (the expansion parameter 1/(k w0) = θ/2
+// of M. Lax, W. H. Louisell & W. B. McKnight, "From Maxwell to paraxial
+// wave optics", Phys. Rev. A 11, 1365–1370 (1975)), about 6 % at 0.5 rad.
+// The threshold itself is a choice, common practice with no single
+// source; beams this fast need a vector or exact-ray treatment. Its main
+// job is to catch a waist radius and a wavelength given in each other's
+// place (w0 = 488 nm, λ0 = 0.42 mm gives θ ≈ 274 rad).
+const MaxDivergence units.Angle = 0.5
+
+// checkParaxial returns an error if g's half-divergence exceeds
+// MaxDivergence; what names the radius the user gave.
+func checkParaxial(g Gaussian, w units.Length, what string) error {
+	th := g.HalfDivergence()
+	if th <= MaxDivergence {
+		return nil
 	}
-	if !finite(float64(waistOffset)) {
-		return Gaussian{}, &ParamError{Param: "waist offset", Value: float64(waistOffset), Length: true, Reason: "must be finite"}
+	reason := "far-field half-angle M²λ0/(n π w0) = " + th.String() + " exceeds " + MaxDivergence.String()
+	if g.Wavelength > w {
+		reason += "; the wavelength " + g.Wavelength.String() + " is larger than the " + what + " " + w.String() + ": are the two swapped?"
 	}
-	if err := checkLight(lambda0, n); err != nil {
+	return &ParamError{Param: what, Value: w, Reason: reason, Err: ErrNotParaxial}
+}
+
+// WaistSpec describes a beam by its waist, as a laser data sheet or a
+// beam-profile fit gives it. Each field says what it is, so that a medium
+// index cannot be read as M² or a diameter as a radius.
+type WaistSpec struct {
+	// Wavelength is the vacuum wavelength λ0 in metres (required).
+	Wavelength units.Length
+	// WaistRadius is the 1/e² intensity radius w0 of the waist in metres;
+	// give it or WaistDiameter (2w0, as many data sheets quote it), not
+	// both.
+	WaistRadius, WaistDiameter units.Length
+	// WaistZ is the position of the waist in metres relative to the plane
+	// where the beam is given (the input plane z = 0 of a system):
+	// positive when the waist lies after the plane (a converging beam),
+	// negative when it lies before (a diverging beam), zero when the
+	// plane is the waist.
+	WaistZ units.Length
+	// M2 is the beam propagation ratio M² ≥ 1 (ISO 11146-1); 0 means 1.
+	M2 float64
+	// Index is the refractive index of the medium at the plane; 0 means 1
+	// (air or vacuum to paraxial accuracy).
+	Index float64
+}
+
+// FromWaist returns the beam at the plane where s gives it:
+//
+//	q = −WaistZ + i zR,   zR = π w0² n/(M² λ0)
+//
+// (H. Kogelnik & T. Li, "Laser beams and resonators", Appl. Opt. 5,
+// 1550–1567 (1966); the M² factor per Siegman 1990, see [Gaussian]). For
+// example, a 0.42 mm waist at the exit window of a 488 nm laser with
+// M² = 1.1:
+//
+//	g, err := beam.FromWaist(beam.WaistSpec{Wavelength: 488 * units.Nanometer, WaistRadius: 0.42 * units.Millimeter, M2: 1.1})
+//
+// It returns a [*ParamError] for a missing, non-positive or non-finite
+// value, for both or neither of WaistRadius and WaistDiameter, and one
+// wrapping [ErrNotParaxial] above [MaxDivergence].
+func FromWaist(s WaistSpec) (Gaussian, error) {
+	w0, what, err := radiusOrDiameter(s.WaistRadius, s.WaistDiameter, "waist radius w0", "waist diameter 2w0")
+	if err != nil {
+		return Gaussian{}, err
+	}
+	if !finite(float64(s.WaistZ)) {
+		return Gaussian{}, &ParamError{Param: "waist position WaistZ", Value: s.WaistZ, Reason: "must be finite"}
+	}
+	n, m2, err := mediumAndM2(s.Wavelength, s.Index, s.M2)
+	if err != nil {
 		return Gaussian{}, err
 	}
 	w := float64(w0)
-	zR := math.Pi * float64(w*w) * n / float64(lambda0)
-	g := Gaussian{Q: complex(-float64(waistOffset), zR), Wavelength: lambda0, Index: n}
-	return g, g.Validate()
-}
-
-// FromRadius returns the TEM₀₀ beam that has 1/e² intensity radius w
-// (metres) and wavefront radius of curvature r (metres; r > 0 for a
-// diverging beam, r < 0 for a converging one, ±Inf for a flat wavefront) at
-// the plane, in a medium of index n at vacuum wavelength λ0 (metres):
-//
-//	1/q = 1/r − i λ/(π w²),   λ = λ0/n
-//
-// (Kogelnik & Li 1966). This is how a beam measured with a profiler and a
-// wavefront sensor (or a shear plate) at one plane is entered. For a beam
-// with M² > 1 measured this way, the effective wavelength M²λ0 replaces λ
-// above, since q depends on λ0 and M² only through M²λ0:
-//
-//	g, err := beam.FromRadius(w, r, m2*lambda0, n)
-//	g.Wavelength, g.M2 = lambda0, m2
-//
-// A beam known by its waist is entered with [FromWaist] and
-// [Gaussian.WithM2] instead.
-//
-// It returns a [*ParamError] unless w, λ0 and n are positive and finite
-// and r is nonzero and not NaN.
-func FromRadius(w, r, lambda0 units.Length, n float64) (Gaussian, error) {
-	if !finite(float64(w)) || w <= 0 {
-		return Gaussian{}, &ParamError{Param: "beam radius w", Value: float64(w), Length: true, Reason: "must be positive and finite"}
-	}
-	if math.IsNaN(float64(r)) || r == 0 {
-		return Gaussian{}, &ParamError{Param: "radius of curvature R", Value: float64(r), Length: true, Reason: "must be nonzero (±Inf for a flat wavefront)"}
-	}
-	if err := checkLight(lambda0, n); err != nil {
+	zR := math.Pi * float64(w*w) * n / (m2 * float64(s.Wavelength))
+	g := Gaussian{Q: complex(-float64(s.WaistZ), zR), Wavelength: s.Wavelength, Index: n, M2: s.M2}
+	if err := g.Validate(); err != nil {
 		return Gaussian{}, err
 	}
-	lambda := float64(lambda0) / n
+	return g, checkParaxial(g, given(s.WaistRadius, s.WaistDiameter), what)
+}
+
+// FromWaists returns an elliptical beam (x and y waists at the same
+// WaistZ) or a simple-astigmatic one (different WaistZ) from one spec per
+// plane: x is the tangential plane, y the sagittal plane. Both must give
+// the same wavelength and index.
+func FromWaists(x, y WaistSpec) (Astigmatic, error) {
+	gx, err := FromWaist(x)
+	if err != nil {
+		return Astigmatic{}, planeError(paraxial.Tangential, err)
+	}
+	gy, err := FromWaist(y)
+	if err != nil {
+		return Astigmatic{}, planeError(paraxial.Sagittal, err)
+	}
+	a := Astigmatic{X: gx, Y: gy}
+	return a, a.Validate()
+}
+
+// ProfileSpec describes a beam by what is measured at one plane: the beam
+// radius (a profiler) and the wavefront radius of curvature (a wavefront
+// sensor or shear plate).
+type ProfileSpec struct {
+	// Wavelength is the vacuum wavelength λ0 in metres (required).
+	Wavelength units.Length
+	// Radius is the 1/e² intensity radius w at the plane in metres; give
+	// it or Diameter, not both.
+	Radius, Diameter units.Length
+	// WavefrontRadius is the radius of curvature R of the wavefront in
+	// metres: R > 0 for a diverging beam (waist behind the plane), R < 0
+	// for a converging one, ±Inf ([paraxial.Flat]) for a flat wavefront.
+	WavefrontRadius units.Length
+	// M2 is the beam propagation ratio M² ≥ 1; 0 means 1.
+	M2 float64
+	// Index is the refractive index of the medium; 0 means 1.
+	Index float64
+}
+
+// FromProfile returns the beam with the measured radius and wavefront
+// radius of curvature of s at the plane:
+//
+//	1/q = 1/R − i M²λ0/(n π w²)
+//
+// (Kogelnik & Li 1966, with the embedded-Gaussian M² of [Gaussian]). It
+// returns a [*ParamError] unless the radius (or diameter), wavelength and
+// index are positive and finite and R is nonzero and not NaN, and one
+// wrapping [ErrNotParaxial] above [MaxDivergence].
+func FromProfile(s ProfileSpec) (Gaussian, error) {
+	w, what, err := radiusOrDiameter(s.Radius, s.Diameter, "beam radius w", "beam diameter 2w")
+	if err != nil {
+		return Gaussian{}, err
+	}
+	r := s.WavefrontRadius
+	if math.IsNaN(float64(r)) || r == 0 {
+		return Gaussian{}, &ParamError{Param: "wavefront radius R", Value: r, Reason: "must be nonzero (±Inf, paraxial.Flat, for a flat wavefront)"}
+	}
+	n, m2, err := mediumAndM2(s.Wavelength, s.Index, s.M2)
+	if err != nil {
+		return Gaussian{}, err
+	}
+	lambda := m2 * float64(s.Wavelength) / n
 	inv := complex(1/float64(r), -lambda/(math.Pi*float64(w*w)))
-	g := Gaussian{Q: 1 / inv, Wavelength: lambda0, Index: n}
-	return g, g.Validate()
+	g := Gaussian{Q: 1 / inv, Wavelength: s.Wavelength, Index: n, M2: s.M2}
+	if err := g.Validate(); err != nil {
+		return Gaussian{}, err
+	}
+	return g, checkParaxial(g, given(s.Radius, s.Diameter), what)
+}
+
+// radiusOrDiameter returns the radius from exactly one of r and d.
+func radiusOrDiameter(r, d units.Length, rname, dname string) (units.Length, string, error) {
+	switch {
+	case r != 0 && d != 0:
+		return 0, "", &ParamError{Param: rname, Value: r, Reason: "give the " + rname + " or the " + dname + " (" + d.String() + "), not both"}
+	case d != 0:
+		if !finite(float64(d)) || d <= 0 {
+			return 0, "", &ParamError{Param: dname, Value: d, Reason: "must be positive and finite"}
+		}
+		return d / 2, dname, nil
+	case !finite(float64(r)) || r <= 0:
+		return 0, "", &ParamError{Param: rname, Value: r, Reason: "must be positive and finite (or give the " + dname + ")"}
+	}
+	return r, rname, nil
+}
+
+func given(r, d units.Length) units.Length {
+	if d != 0 {
+		return d
+	}
+	return r
+}
+
+// mediumAndM2 validates the wavelength and returns the index and M² with
+// their defaults (0 means 1).
+func mediumAndM2(lambda0 units.Length, n, m2 float64) (float64, float64, error) {
+	if n == 0 {
+		n = 1
+	}
+	if err := checkLight(lambda0, n); err != nil {
+		return 0, 0, err
+	}
+	if m2 == 0 {
+		m2 = 1
+	}
+	if !finite(m2) || !(m2 >= 1) {
+		return 0, 0, &ParamError{Param: "M²", Value: m2, Reason: "must be at least 1 and finite (0 means 1)"}
+	}
+	return n, m2, nil
 }
 
 // WithM2 returns the embedded-Gaussian beam with propagation ratio m2 ≥ 1
-// that has the same waist radius W0 and the same waist position as g (the
+// that keeps the waist radius W0 and the waist position of g fixed (the
 // way laser data sheets specify a beam: waist diameter, waist location and
-// M²). Its Rayleigh range is
+// M²), and so changes the Rayleigh range and the divergence. Its Rayleigh
+// range is
 //
 //	zR = π W0² n/(m2 λ0)
 //
@@ -189,11 +311,14 @@ func (g Gaussian) BeamQuality() float64 {
 	return g.M2
 }
 
-// FromQ returns the beam with parameter q (metres) in a medium of index n
-// at vacuum wavelength λ0 (metres). It returns a [*ParamError] unless q is
-// finite with Im q > 0 and λ0 and n are positive and finite.
-func FromQ(q complex128, lambda0 units.Length, n float64) (Gaussian, error) {
-	g := Gaussian{Q: q, Wavelength: lambda0, Index: n}
+// FromQ returns the TEM₀₀ beam with complex parameter q (metres) at vacuum
+// wavelength wavelength (metres) in a medium of refractive index index.
+// It is for q values computed elsewhere; beams from data sheets and
+// measurements are entered with [FromWaist] and [FromProfile]. It returns a
+// [*ParamError] unless q is finite with Im q > 0 and the wavelength and
+// index are positive and finite.
+func FromQ(q complex128, wavelength units.Length, index float64) (Gaussian, error) {
+	g := Gaussian{Q: q, Wavelength: wavelength, Index: index}
 	return g, g.Validate()
 }
 
@@ -208,11 +333,11 @@ func (g Gaussian) Validate() error {
 		return &ParamError{Param: "M²", Value: g.M2, Reason: "must be at least 1 and finite (0 means 1)"}
 	}
 	if !finite(real(g.Q)) || !finite(imag(g.Q)) || !(imag(g.Q) > 0) {
-		return &ParamError{Param: "Im q", Value: imag(g.Q), Length: true, Err: ErrNotPhysical}
+		return &ParamError{Param: "Im q", Value: units.Length(imag(g.Q)), Err: ErrNotPhysical}
 	}
 	// The derived quantities must be finite as well (no overflow in |q|).
 	if w := g.Radius(); !finite(float64(w)) || w <= 0 {
-		return &ParamError{Param: "beam radius w", Value: float64(w), Length: true, Err: ErrNotPhysical}
+		return &ParamError{Param: "beam radius w", Value: w, Err: ErrNotPhysical}
 	}
 	return nil
 }
@@ -229,14 +354,14 @@ func (g Gaussian) Radius() units.Length {
 	return units.Length(cmplx.Abs(g.Q) * math.Sqrt(g.lambda()/(math.Pi*imag(g.Q))))
 }
 
-// Curvature returns the radius of curvature R of the wavefront at the plane,
-// in metres:
+// WavefrontRadius returns the radius of curvature R of the wavefront at the
+// plane, in metres:
 //
 //	R = |q|²/Re q = z (1 + (zR/z)²)
 //
 // R > 0 past the waist (diverging beam), R < 0 before it (converging).
 // Special case: R = +Inf exactly at the waist (Re q = 0, flat wavefront).
-func (g Gaussian) Curvature() units.Length {
+func (g Gaussian) WavefrontRadius() units.Length {
 	z := real(g.Q)
 	if z == 0 {
 		return units.Length(math.Inf(1))
@@ -245,9 +370,9 @@ func (g Gaussian) Curvature() units.Length {
 	return units.Length(z + float64(zR*zR)/z)
 }
 
-// InverseCurvature returns 1/R in 1/m, which is 0 at a waist and finite
-// everywhere: 1/R = Re(1/q) = z/(z² + zR²).
-func (g Gaussian) InverseCurvature() float64 {
+// WavefrontCurvature returns the curvature 1/R of the wavefront in 1/m,
+// which is 0 at a waist and finite everywhere: 1/R = Re(1/q) = z/(z² + zR²).
+func (g Gaussian) WavefrontCurvature() float64 {
 	z, zR := real(g.Q), imag(g.Q)
 	return z / (float64(z*z) + float64(zR*zR))
 }
@@ -268,15 +393,22 @@ func (g Gaussian) WaistRadius() units.Length {
 // converging), negative when it lies behind.
 func (g Gaussian) WaistOffset() units.Length { return units.Length(-real(g.Q)) }
 
-// Divergence returns the far-field half-angle of the beam in its medium,
+// HalfDivergence returns the far-field half-angle of the beam in its
+// medium, measured from the axis to the 1/e² edge,
 //
 //	θ = λ/(π w0) = M² λ0/(n π w0)
 //
 // in radians (Kogelnik & Li 1966; Siegman, Lasers, ch. 17 [from memory];
-// the M² factor per Siegman 1990 [from memory]).
-func (g Gaussian) Divergence() units.Angle {
+// the M² factor per Siegman 1990 [from memory]). ISO 11146-1 quotes the
+// full angle; see [Gaussian.FullDivergence].
+func (g Gaussian) HalfDivergence() units.Angle {
 	return units.Angle(g.lambda() / (math.Pi * float64(g.WaistRadius())))
 }
+
+// FullDivergence returns the full far-field divergence angle Θ = 2θ in
+// radians, edge to edge of the 1/e² (second-moment, for a Gaussian)
+// diameter, the quantity ISO 11146-1 calls the divergence angle.
+func (g Gaussian) FullDivergence() units.Angle { return 2 * g.HalfDivergence() }
 
 // GouyPhase returns the on-axis Gouy phase relative to the waist,
 //

@@ -98,10 +98,10 @@ func TestApertures(t *testing.T) {
 	// against w = 3 mm: rel 1e-6, since w grows by (1 mm/zR)²/2 ≈ 7e-10.
 	in := mustWaist(t, 3*mm, 0, 1064*nm, 1)
 	sys := mustBuild(t, paraxial.NewBuilder().
-		Space(1*mm).ThinLens(1).Label("L1").Aperture(4*mm).
-		Space(1*mm).ThinLens(-1).Aperture(12.7*mm).
+		Space(1*mm).ThinLens(1).Label("L1").Aperture(paraxial.ClearRadius(4*mm)).
+		Space(1*mm).ThinLens(-1).Aperture(paraxial.ClearRadius(12.7*mm)).
 		Space(1*mm).ThinLens(1)) // no aperture: not checked
-	clips, err := Apertures(sys, in, 0)
+	clips, err := Clipping(sys, in, 0)
 	if err != nil {
 		t.Fatalf("Apertures error: %v", err)
 	}
@@ -115,21 +115,21 @@ func TestApertures(t *testing.T) {
 	if !scalar.EqualWithinAbsOrRel(c0.Transmission, 1-math.Exp(-32.0/9), 0, 1e-6) || !c0.Low || c0.MinTransmission != DefaultMinTransmission {
 		t.Errorf("L1 check = %+v, want T ≈ 0.97140, flagged, threshold 0.99", c0)
 	}
-	if c1.Low || c1.Label != "element 3 (thin lens)" || c1.Warning() != "" {
-		t.Errorf("second lens check = %+v, want not flagged with a default label", c1)
+	if c1.Low || c1.Name != "ThinLens (call 4)" || c1.Warning() != "" {
+		t.Errorf("second lens check = %+v, want not flagged, named by its builder call", c1)
 	}
-	wantWarn := "L1 (z = 1 mm): clear aperture radius 4 mm passes 97.14 % of the beam (w = 3 mm), below 99.00 %"
+	wantWarn := `ThinLens "L1" (call 2) at z = 1 mm: ⌀ 8 mm passes 97.14 % of the beam (w = 3 mm), below 99.00 %`
 	if got := c0.Warning(); got != wantWarn {
 		t.Errorf("Warning() = %q, want %q", got, wantWarn)
 	}
 	// A user threshold of 95 % clears L1.
-	clips, err = Apertures(sys, in, 0.95)
+	clips, err = Clipping(sys, in, 0.95)
 	if err != nil || clips[0].Low {
-		t.Errorf("Apertures(0.95) = %+v, %v; want L1 not flagged", clips, err)
+		t.Errorf("Clipping(0.95) = %+v, %v; want L1 not flagged", clips, err)
 	}
 	for _, bad := range []float64{-0.1, 1.01, math.NaN(), math.Inf(1)} {
-		if _, err := Apertures(sys, in, bad); err == nil || !strings.Contains(err.Error(), "minimum transmission") {
-			t.Errorf("Apertures(%g) error = %v, want a minimum-transmission error", bad, err)
+		if _, err := Clipping(sys, in, bad); err == nil || !strings.Contains(err.Error(), "minimum transmission") {
+			t.Errorf("Clipping(%g) error = %v, want a minimum-transmission error", bad, err)
 		}
 	}
 }

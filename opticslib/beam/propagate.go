@@ -27,6 +27,9 @@ func formatFloat(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) 
 
 // checkInput validates in and its match with sys, and returns both planes.
 func checkInput(sys paraxial.System, in Input) (Astigmatic, error) {
+	if err := sys.Validate(); err != nil {
+		return Astigmatic{}, err
+	}
 	if in == nil {
 		return Astigmatic{}, &ParamError{Param: "input beam", Reason: "is nil"}
 	}
@@ -42,7 +45,7 @@ func checkInput(sys paraxial.System, in Input) (Astigmatic, error) {
 	}
 	// Indices are user-typed numbers; allow for a last-digit difference.
 	if n := sys.IndexIn(); math.Abs(a.X.Index-n) > 1e-12*n {
-		return Astigmatic{}, &ParamError{Param: "input beam index n", Value: a.X.Index, Reason: "system input index is " + formatFloat(n), Err: ErrIndexMismatch}
+		return Astigmatic{}, &ParamError{Param: "input beam index n", Value: a.X.Index, Reason: "the system's input medium has n = " + formatFloat(n) + " (set Index in the beam's spec, or Medium in the builder)", Err: ErrIndexMismatch}
 	}
 	return a, nil
 }
@@ -52,12 +55,12 @@ func checkInput(sys paraxial.System, in Input) (Astigmatic, error) {
 // [paraxial.ErrNonFinite].
 func matricesTo(sys paraxial.System, z units.Length) (mx, my paraxial.Matrix, err error) {
 	if !finite(float64(z)) {
-		return mx, my, &ParamError{Param: "position z", Value: float64(z), Length: true, Err: paraxial.ErrNonFinite}
+		return mx, my, &ParamError{Param: "position z", Value: z, Err: paraxial.ErrNonFinite}
 	}
-	if mx, err = sys.MatrixTo(z); err != nil {
+	if mx, err = sys.MatrixTo(z, paraxial.Tangential); err != nil {
 		return mx, my, err
 	}
-	my, err = sys.MatrixToY(z)
+	my, err = sys.MatrixTo(z, paraxial.Sagittal)
 	return mx, my, err
 }
 
@@ -91,8 +94,8 @@ func At(sys paraxial.System, in Gaussian, z units.Length) (Gaussian, error) {
 
 // AtXY is [At] for a beam that may differ in x and y, through a system
 // that may act differently in x and y: the x part goes through
-// [paraxial.System.MatrixTo], the y part through
-// [paraxial.System.MatrixToY]. in may be a [Gaussian] (a round beam) or an
+// [paraxial.System.MatrixTo] in the tangential plane, the y part in the
+// sagittal plane. in may be a [Gaussian] (a round beam) or an
 // [Astigmatic] beam.
 func AtXY(sys paraxial.System, in Input, z units.Length) (Astigmatic, error) {
 	a, err := checkInput(sys, in)
@@ -115,8 +118,15 @@ func AtXY(sys paraxial.System, in Input, z units.Length) (Astigmatic, error) {
 // fields equal the X fields.
 type Waist struct {
 	// Element is the index of the element after which the beam is
-	// considered.
+	// considered, and Name how messages name it ([paraxial.Element.Name]).
 	Element int
+	Name    string
+	// AfterElement is the distance in metres from the element's exit
+	// plane to the x waist: positive when the waist lies after the
+	// element (a real focus behind a lens), negative for a virtual waist
+	// before it. It is the lens-to-waist distance, with no position
+	// arithmetic.
+	AfterElement units.Length
 	// Z is the absolute axial position of the x waist in metres from the
 	// input plane. It may lie behind the element or beyond the next one
 	// (a virtual waist); compare with the element positions.
@@ -148,23 +158,25 @@ func Waists(sys paraxial.System, in Input) ([]Waist, error) {
 	if err != nil {
 		return nil, err
 	}
-	out := make([]Waist, sys.Len())
-	for i, e := range sys.Elements() {
-		a = a.Transform(e.X, e.Y, e.IndexOut)
+	out := make([]Waist, 0, sys.Len())
+	for pc := range sys.Walk(0, sys.Length()) {
+		a = a.Transform(pc.X, pc.Y, pc.IndexOut)
 		if a.X.Validate() != nil || a.Y.Validate() != nil {
 			return nil, ErrOverflow
 		}
-		end := e.Z + e.Length
-		out[i] = Waist{
-			Element:        i,
+		end := pc.To
+		out = append(out, Waist{
+			Element:        pc.Element,
+			Name:           sys.Element(pc.Element).Name(),
+			AfterElement:   a.X.WaistOffset(),
 			Z:              end + a.X.WaistOffset(),
 			Radius:         a.X.WaistRadius(),
 			RayleighRange:  a.X.RayleighRange(),
-			Index:          e.IndexOut,
+			Index:          pc.IndexOut,
 			ZY:             end + a.Y.WaistOffset(),
 			RadiusY:        a.Y.WaistRadius(),
 			RayleighRangeY: a.Y.RayleighRange(),
-		}
+		})
 	}
 	return out, nil
 }
@@ -184,38 +196,42 @@ type Focus struct {
 	Index float64
 }
 
-// segment is a homogeneous stretch [s, e] of the path with the beam at s.
+// segment is a homogeneous stretch [s, e] of the path with the beam at s;
+// elem is the index of the space, −1 for the input medium and Len() for
+// the output medium.
 type segment struct {
 	s, e float64
 	b    Astigmatic
+	elem int
 }
 
 // segments calls f for every homogeneous stretch of sys that overlaps
 // [a, b], in order, including the input medium before z = 0 (when a < 0)
-// and the output medium after the system (when b > Length). The beam in
-// must be valid. f returns false to stop.
+// and the output medium after the system (when b > Length); stretches
+// inside the system are whole spaces, not clipped to [a, b]. It walks the
+// system with [paraxial.System.Walk]. The beam in must be valid. f returns
+// false to stop.
 func segments(sys paraxial.System, in Astigmatic, a, b float64, f func(segment) bool) {
 	cur := in
 	if a < 0 {
-		s := segment{s: a, e: math.Min(0, b), b: cur.Transform(paraxial.Space(units.Length(a)), paraxial.Space(units.Length(a)), cur.X.Index)}
+		s := segment{s: a, e: math.Min(0, b), b: cur.Transform(paraxial.Space(units.Length(a)), paraxial.Space(units.Length(a)), cur.X.Index), elem: -1}
 		if !f(s) {
 			return
 		}
 	}
-	for i := range sys.Len() {
-		e := sys.Element(i)
-		z0, z1 := float64(e.Z), float64(e.Z+e.Length)
-		if e.Kind == paraxial.KindSpace {
+	for pc := range sys.Walk(0, sys.Length()) {
+		if pc.Kind == paraxial.KindSpace {
+			z0, z1 := float64(pc.From), float64(pc.To)
 			if z1 >= a && z0 <= b {
-				if !f(segment{s: z0, e: z1, b: cur}) {
+				if !f(segment{s: z0, e: z1, b: cur, elem: pc.Element}) {
 					return
 				}
 			}
 		}
-		cur = cur.Transform(e.X, e.Y, e.IndexOut)
+		cur = cur.Transform(pc.X, pc.Y, pc.IndexOut)
 	}
 	if l := float64(sys.Length()); b > l {
-		f(segment{s: l, e: b, b: cur})
+		f(segment{s: l, e: b, b: cur, elem: sys.Len()})
 	}
 }
 
@@ -303,50 +319,63 @@ func Extremes(sys paraxial.System, in Input) (Extent, error) {
 // round beam through a rotationally symmetric system the Y slices equal
 // the X slices.
 type Caustic struct {
-	// Z holds the sample positions in metres from the input plane.
-	Z []float64
-	// W and WY hold the 1/e² beam radii w(z) in x and y, in metres.
-	W, WY []float64
-	// InverseCurvature and InverseCurvatureY hold 1/R(z) in 1/m (0 at a
-	// waist; finite everywhere, unlike R).
-	InverseCurvature, InverseCurvatureY []float64
-	// Gouy and GouyY hold the on-axis Gouy phase of each plane in radians,
+	// Z holds the sample positions from the input plane.
+	Z []units.Length
+	// W and WY hold the 1/e² beam radii w(z) in x and y.
+	W, WY []units.Length
+	// Curvature and CurvatureY hold the wavefront curvature 1/R(z) in
+	// 1/m: 0 at a waist and finite everywhere, unlike R (see
+	// [Gaussian.WavefrontCurvature]).
+	Curvature, CurvatureY []float64
+	// Gouy and GouyY hold the on-axis Gouy phase of each plane,
 	// accumulated from Z[0] element by element, not reduced modulo 2π.
 	// For a beam that is astigmatic the total on-axis Gouy phase of the
 	// fundamental mode is (Gouy + GouyY)/2 (Siegman, Lasers, ch. 20 [from
 	// memory]); for a round beam it is Gouy.
-	Gouy, GouyY []float64
+	Gouy, GouyY []units.Angle
 	// Index holds the refractive index at each sample.
 	Index []float64
 	// ElementZ holds the entrance position of every element of the
-	// system, in metres, in element order.
-	ElementZ []float64
+	// system, in element order.
+	ElementZ []units.Length
 	// Foci and FociY hold the real waists in x and in y inside the
 	// sampled range, in order of position.
 	Foci, FociY []Focus
+
+	// The system and input beam the caustic was sampled from, for the
+	// exact maxima of [Caustic.Irradiance].
+	sys paraxial.System
+	in  Astigmatic
 }
 
+// MaxSamples is the largest sample count [Sample] and [SampleRange]
+// accept: 2²⁰ samples are 59 MB of results, far more than a figure or a
+// table can show.
+const MaxSamples = 1 << 20
+
 // Sample returns the caustic of the beam in (given at the input plane)
-// through the whole of sys, from z = 0 to z = sys.Length(), at n ≥ 2
-// equally spaced positions plus the position of every element inside that
-// range and of every real waist ([Focus]), so that kinks at lenses and
-// the minima of w are sampled exactly. Samples at the
-// position of a zero-thickness element describe the plane just after it,
-// as in [At]. in may be a [Gaussian] (a round beam) or an [Astigmatic]
-// beam; the x part follows the elements' X matrices and the y part their
-// Y matrices.
+// through the whole of sys, from z = 0 to z = sys.Length(), at n equally
+// spaced positions (2 ≤ n ≤ [MaxSamples]) plus the position of every
+// element inside that range and of every real waist ([Focus]), so that
+// kinks at lenses and the minima of w are sampled exactly. Samples at the
+// position of a surface describe the plane just after it, as in [At]. in
+// may be a [Gaussian] (a round beam) or an [Astigmatic] beam; the x part
+// follows the elements' X matrices and the y part their Y matrices.
 //
-// An element other than a space with nonzero Length (a thick element) is
-// applied at its exit plane Z + Length: no samples are placed strictly
-// inside it, the sample at its entrance is the arriving beam, and a plot
-// joins entrance and exit by a straight chord.
+// Within each space the values come from the closed forms of a
+// homogeneous medium, q(z) = q(z₀) + (z − z₀) and ψ(z) = ψ(z₀) +
+// arctan(Re q(z)/zR) − arctan(Re q(z₀)/zR) (Kogelnik & Li 1966); a surface
+// adds the Gouy shift of [Gaussian.GouyShift].
 //
-// It returns an error if n < 2, sys has zero length, in is invalid or its
-// index differs from sys.IndexIn(). Use [SampleRange] to extend the range
-// beyond the system.
+// It returns an error if n is out of range, sys has zero length, in is
+// invalid or its index differs from sys.IndexIn(). Use [SampleRange] to
+// extend the range beyond the system.
 func Sample(sys paraxial.System, in Input, n int) (Caustic, error) {
+	if err := sys.Validate(); err != nil {
+		return Caustic{}, err
+	}
 	if sys.Length() <= 0 {
-		return Caustic{}, &ParamError{Param: "system length", Value: float64(sys.Length()), Length: true, Reason: "must be positive to sample; use SampleRange"}
+		return Caustic{}, &ParamError{Param: "system length", Value: sys.Length(), Reason: "must be positive to sample; use SampleRange"}
 	}
 	return SampleRange(sys, in, 0, sys.Length(), n)
 }
@@ -355,47 +384,31 @@ func Sample(sys paraxial.System, in Input, n int) (Caustic, error) {
 // input plane, z0 < z1, both finite), which may extend before the input
 // plane or beyond the output plane.
 func SampleRange(sys paraxial.System, in Input, z0, z1 units.Length, n int) (Caustic, error) {
-	if n < 2 {
-		return Caustic{}, &ParamError{Param: "sample count n", Value: float64(n), Reason: "must be at least 2"}
+	if n < 2 || n > MaxSamples {
+		return Caustic{}, &ParamError{Param: "sample count n", Value: n, Reason: "must be in [2, " + strconv.Itoa(MaxSamples) + "]"}
 	}
 	if !finite(float64(z0)) {
-		return Caustic{}, &ParamError{Param: "start z0", Value: float64(z0), Length: true, Reason: "must be finite"}
+		return Caustic{}, &ParamError{Param: "start z0", Value: z0, Reason: "must be finite"}
 	}
 	if !finite(float64(z1)) || !(z1 > z0) {
-		return Caustic{}, &ParamError{Param: "end z1", Value: float64(z1), Length: true, Reason: "must be finite and greater than z0 = " + z0.String()}
+		return Caustic{}, &ParamError{Param: "end z1", Value: z1, Reason: "must be finite and greater than z0 = " + z0.String()}
 	}
 	a0, err := checkInput(sys, in)
 	if err != nil {
 		return Caustic{}, err
 	}
-	elems := sys.Elements()
 	a, b := float64(z0), float64(z1)
 
-	// The grid: n equally spaced points merged with the element positions
-	// (already in increasing order), without duplicates and without points
-	// strictly inside thick elements.
-	extra := make([]float64, 0, 2*len(elems))
-	type span struct{ s, e float64 }
-	var thick []span
-	c := Caustic{ElementZ: make([]float64, len(elems))}
-	for i, e := range elems {
-		z := float64(e.Z)
-		c.ElementZ[i] = z
-		if e.Kind == paraxial.KindSpace {
-			continue
-		}
-		if z > a && z < b {
+	// The grid: n equally spaced points merged with the surface positions
+	// and the real waists, in increasing order, without duplicates.
+	c := Caustic{ElementZ: make([]units.Length, 0, sys.Len()), sys: sys, in: a0}
+	var extra []float64
+	for pc := range sys.Walk(0, sys.Length()) {
+		c.ElementZ = append(c.ElementZ, pc.From)
+		if z := float64(pc.From); pc.Kind != paraxial.KindSpace && z > a && z < b {
 			extra = append(extra, z)
 		}
-		if e.Length > 0 {
-			end := float64(e.Z + e.Length)
-			thick = append(thick, span{z, end})
-			if end > a && end < b {
-				extra = append(extra, end)
-			}
-		}
 	}
-	// Every real waist is sampled too, so that minima of w are exact.
 	c.Foci, c.FociY = foci(sys, a0, a, b)
 	for _, fs := range [][]Focus{c.Foci, c.FociY} {
 		for _, f := range fs {
@@ -404,26 +417,13 @@ func SampleRange(sys paraxial.System, in Input, z0, z1 units.Length, n int) (Cau
 			}
 		}
 	}
-	if len(c.Foci)+len(c.FociY) > 0 {
-		slices.Sort(extra)
-	}
-	zs := make([]float64, 0, n+len(extra))
-	inside := func(z float64) bool {
-		for _, t := range thick {
-			if z > t.s && z < t.e {
-				return true
-			}
-		}
-		return false
-	}
+	slices.Sort(extra)
+	zs := make([]units.Length, 0, n+len(extra))
 	push := func(z float64) {
-		if k := len(zs); k > 0 && zs[k-1] >= z {
-			return // duplicate (extra is sorted, so only equal values arrive)
-		}
-		if len(thick) > 0 && inside(z) {
+		if k := len(zs); k > 0 && float64(zs[k-1]) >= z {
 			return
 		}
-		zs = append(zs, z)
+		zs = append(zs, units.Length(z))
 	}
 	j := 0
 	for i := range n {
@@ -439,123 +439,98 @@ func SampleRange(sys paraxial.System, in Input, z0, z1 units.Length, n int) (Cau
 	}
 
 	m := len(zs)
-	buf := make([]float64, 7*m)
 	c.Z = zs
-	c.W, c.WY = buf[0:m:m], buf[m:2*m:2*m]
-	c.InverseCurvature, c.InverseCurvatureY = buf[2*m:3*m:3*m], buf[3*m:4*m:4*m]
-	c.Gouy, c.GouyY = buf[4*m:5*m:5*m], buf[5*m:6*m:6*m]
-	c.Index = buf[6*m:]
+	lens := make([]units.Length, 2*m)
+	c.W, c.WY = lens[0:m:m], lens[m:]
+	curv := make([]float64, 3*m)
+	c.Curvature, c.CurvatureY, c.Index = curv[0:m:m], curv[m:2*m:2*m], curv[2*m:]
+	gouy := make([]units.Angle, 2*m)
+	c.Gouy, c.GouyY = gouy[0:m:m], gouy[m:]
 
 	// A round beam through rotationally symmetric elements needs one plane
 	// only: the y results are copies (bit-identical to tracing y).
 	same := a0.X == a0.Y
-	for _, e := range elems {
+	for _, e := range sys.Elements() {
 		same = same && e.X == e.Y
 	}
-	t := tracer{elems: elems, b: a0, pos: 0, same: same}
-	if a < 0 {
-		t.b = a0.Transform(paraxial.Space(z0), paraxial.Space(z0), a0.X.Index)
-		t.pos = a
-	} else {
-		t.advance(a)
+	// Walk from min(z0, 0) so that the beam is known at every piece;
+	// samples start at z0. The beam cur holds at position pos.
+	start := min(z0, 0)
+	cur := a0
+	if z0 < 0 {
+		cur = a0.Transform(paraxial.Space(z0), paraxial.Space(z0), a0.X.Index)
 	}
-	startX, startY := t.gouyX, t.gouyY
-	for i, z := range zs {
-		t.advance(z)
-		qx, qy := t.b.X.Q, t.b.Y.Q
-		if same {
-			qy = qx
+	var gx, gy float64 // Gouy phase accumulated at pos
+	k := 0
+	emit := func(to units.Length, inclusive bool, from units.Length) {
+		for k < m && (zs[k] < to || (inclusive && zs[k] == to)) {
+			d := float64(zs[k] - from)
+			c.W[k], c.Curvature[k], c.Gouy[k] = spaceSample(cur.X, d, gx)
+			c.Index[k] = cur.X.Index
+			if !same {
+				c.WY[k], c.CurvatureY[k], c.GouyY[k] = spaceSample(cur.Y, d, gy)
+			}
+			k++
 		}
-		if !finite(real(qx)) || !(imag(qx) > 0) || !finite(imag(qx)) ||
-			!finite(real(qy)) || !(imag(qy) > 0) || !finite(imag(qy)) {
-			return Caustic{}, ErrOverflow
+	}
+	advance := func(d float64) {
+		if d == 0 {
+			return
 		}
-		c.W[i] = float64(t.b.X.Radius())
-		c.InverseCurvature[i] = t.b.X.InverseCurvature()
-		c.Gouy[i] = t.gouyX - startX
-		c.Index[i] = t.b.X.Index
+		gx += gouyStep(cur.X, d)
+		cur.X.Q += complex(d, 0)
 		if !same {
-			c.WY[i] = float64(t.b.Y.Radius())
-			c.InverseCurvatureY[i] = t.b.Y.InverseCurvature()
-			c.GouyY[i] = t.gouyY - startY
+			gy += gouyStep(cur.Y, d)
+			cur.Y.Q += complex(d, 0)
 		}
 	}
+	for pc := range sys.Walk(start, z1) {
+		if pc.Kind == paraxial.KindSpace { // a space, or the input or output medium
+			emit(pc.To, false, pc.From)
+			advance(float64(pc.To - pc.From))
+			continue
+		}
+		gx += float64(cur.X.GouyShift(pc.X))
+		cur.X = cur.X.Transform(pc.X, pc.IndexOut)
+		if !same {
+			gy += float64(cur.Y.GouyShift(pc.Y))
+			cur.Y = cur.Y.Transform(pc.Y, pc.IndexOut)
+		}
+	}
+	emit(z1, true, z1)
 	if same {
 		copy(c.WY, c.W)
-		copy(c.InverseCurvatureY, c.InverseCurvature)
+		copy(c.CurvatureY, c.Curvature)
 		copy(c.GouyY, c.Gouy)
 	}
+	// Gouy phases relative to the first sample.
+	g0x, g0y := c.Gouy[0], c.GouyY[0]
 	for i := range m {
-		if !finite(c.W[i]) || !finite(c.WY[i]) || !finite(c.Gouy[i]) || !finite(c.GouyY[i]) {
+		c.Gouy[i] -= g0x
+		c.GouyY[i] -= g0y
+		if !finite(float64(c.W[i])) || !(c.W[i] > 0) || !finite(float64(c.WY[i])) || !(c.WY[i] > 0) ||
+			!finite(float64(c.Gouy[i])) || !finite(float64(c.GouyY[i])) || !finite(c.Curvature[i]) || !finite(c.CurvatureY[i]) {
 			return Caustic{}, ErrOverflow
 		}
 	}
 	return c, nil
 }
 
-// tracer walks a beam monotonically along a system, accumulating the Gouy
-// phase element by element in each plane. Elements j < i have been fully
-// applied; if element i is a space it has been applied up to pos.
-type tracer struct {
-	elems        []paraxial.Element
-	i            int
-	pos          float64
-	b            Astigmatic
-	gouyX, gouyY float64
-	same         bool // trace x only; y is identical
+// spaceSample returns the radius, wavefront curvature and accumulated Gouy
+// phase of beam g (given at the start of a homogeneous stretch, with Gouy
+// phase g0 there) at distance d into it.
+func spaceSample(g Gaussian, d, g0 float64) (units.Length, float64, units.Angle) {
+	h := g
+	h.Q += complex(d, 0)
+	return h.Radius(), h.WavefrontCurvature(), units.Angle(g0 + gouyStep(g, d))
 }
 
-// space propagates by d metres in the current medium. The Gouy phase of a
-// free-space step is arctan(z2/zR) − arctan(z1/zR) (Kogelnik & Li 1966).
-func (t *tracer) space(d float64) {
+// gouyStep is the Gouy phase of a free-space step d from beam g:
+// arctan(z2/zR) − arctan(z1/zR) (Kogelnik & Li 1966).
+func gouyStep(g Gaussian, d float64) float64 {
 	if d == 0 {
-		return
+		return 0
 	}
-	z, zR := real(t.b.X.Q), imag(t.b.X.Q)
-	t.gouyX += math.Atan((z+d)/zR) - math.Atan(z/zR)
-	t.b.X.Q += complex(d, 0)
-	t.pos += d
-	if t.same {
-		return
-	}
-	z, zR = real(t.b.Y.Q), imag(t.b.Y.Q)
-	t.gouyY += math.Atan((z+d)/zR) - math.Atan(z/zR)
-	t.b.Y.Q += complex(d, 0)
-}
-
-// advance moves the tracer to position z ≥ t.pos, applying every element
-// whose exit plane lies at or before z.
-func (t *tracer) advance(z float64) {
-	for t.i < len(t.elems) {
-		e := &t.elems[t.i]
-		end := float64(e.Z + e.Length)
-		if e.Kind == paraxial.KindSpace {
-			if z < end {
-				t.space(z - t.pos)
-				return
-			}
-			t.space(end - t.pos)
-			t.pos = end // remove rounding drift at element boundaries
-			t.i++
-			continue
-		}
-		if end > z {
-			// z lies before this element: only the input medium can
-			// remain (the tracer started before z = 0), so propagate
-			// in it up to z, never past the element's entrance.
-			t.space(min(z, float64(e.Z)) - t.pos)
-			return
-		}
-		t.space(float64(e.Z) - t.pos) // zero unless the tracer started before z = 0
-		t.gouyX += float64(t.b.X.GouyShift(e.X))
-		if t.same {
-			t.b.X = t.b.X.Transform(e.X, e.IndexOut)
-		} else {
-			t.gouyY += float64(t.b.Y.GouyShift(e.Y))
-			t.b = t.b.Transform(e.X, e.Y, e.IndexOut)
-		}
-		t.pos = end
-		t.i++
-	}
-	t.space(z - t.pos)
+	z, zR := real(g.Q), imag(g.Q)
+	return math.Atan((z+d)/zR) - math.Atan(z/zR)
 }

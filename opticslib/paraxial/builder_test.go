@@ -71,11 +71,11 @@ func TestBuilderErrors(t *testing.T) {
 			"paraxial: ConvexMirror \"M2\" (call 2): radius of curvature R = -200 mm: must be positive and finite: give the number printed on the part and choose ConcaveMirror or ConvexMirror (FlatMirror for a flat one)", nil},
 		{"mirror zero focal length", NewBuilder().MirrorOfFocalLength(0, 0),
 			"paraxial: MirrorOfFocalLength (call 1): focal length f = 0 m: must be nonzero and finite (positive for a concave mirror)", nil},
-		{"label names the failed call", NewBuilder().Space(1).ThickLens(0.05, -0.05, 2*mm, 1.5).Label("L1").Space(10*mm).ThinLens(0).Label("L2"),
+		{"label names the failed call", NewBuilder().Space(1).ThickLens(0.05, -0.05, 2*mm, 1.5).Label("L1").Space(10 * mm).ThinLens(0).Label("L2"),
 			"paraxial: ThinLens \"L2\" (call 4): focal length f = 0 m: must be nonzero and finite", nil},
-		{"thick lens aperture beyond R", NewBuilder().ThickLens(10*mm, -10*mm, 8*mm, 1.5).Label("ball-ish").Aperture(ClearDiameter(25.4*mm)),
+		{"thick lens aperture beyond R", NewBuilder().ThickLens(10*mm, -10*mm, 8*mm, 1.5).Label("ball-ish").Aperture(ClearDiameter(25.4 * mm)),
 			"paraxial: ThickLens.Aperture \"ball-ish\" (call 1): clear radius = 12.7 mm: exceeds the radius of curvature |R| = 10 mm of a side of the lens", nil},
-		{"thick lens negative edge", NewBuilder().ThickLens(20*mm, -20*mm, 2*mm, 1.5).Label("L3").Aperture(ClearDiameter(20*mm)),
+		{"thick lens negative edge", NewBuilder().ThickLens(20*mm, -20*mm, 2*mm, 1.5).Label("L3").Aperture(ClearDiameter(20 * mm)),
 			"paraxial: ThickLens.Aperture \"L3\" (call 1): clear radius = 10 mm: leaves an edge thickness of -3.35898 mm (centre 2 mm): no such lens", nil},
 		{"slit bad plane", NewBuilder().Space(1).Diaphragm(SlitOfWidth(0.1*mm, Plane(3))),
 			"paraxial: Diaphragm (call 2): slit plane = 3: must be Tangential or Sagittal", nil},
@@ -244,7 +244,7 @@ func FuzzBuilder(f *testing.F) {
 				}
 			}
 		}
-		if _, err := s.MatrixTo(s.Length() / 2, Tangential); err != nil && err != ErrOverflow {
+		if _, err := s.MatrixTo(s.Length()/2, Tangential); err != nil && err != ErrOverflow {
 			t.Fatalf("MatrixTo(L/2) error: %v", err)
 		}
 		_ = s.Prescription().Text()

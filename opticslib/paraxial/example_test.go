@@ -54,7 +54,7 @@ func ExampleSystem_MatrixTo() {
 		Interface(-50*units.Millimeter, 1).
 		Space(60 * units.Millimeter).
 		Build()
-	m, _ := sys.MatrixTo(5 * units.Millimeter, paraxial.Tangential) // just after the rear surface
+	m, _ := sys.MatrixTo(5*units.Millimeter, paraxial.Tangential) // just after the rear surface
 	fmt.Printf("EFL = %.6f mm, BFL = %.6f mm\n", -1/m.C*1e3, -m.A/m.C*1e3)
 	fmt.Printf("n(2 mm) = %.4f, det = %.4f\n", sys.IndexAt(2*units.Millimeter), sys.Matrix(paraxial.Tangential).Det())
 	// Output:
