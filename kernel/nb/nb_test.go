@@ -6,6 +6,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"github.com/beamnote/beamnote/opticslib/table"
 )
 
 // Plain-text fallbacks and HTML fragments of the display package. The HTML
@@ -26,23 +28,23 @@ func capture(t *testing.T, f func() error) string {
 
 func TestTableText(t *testing.T) {
 	got := capture(t, func() error {
-		return Table("Waists", []string{"element", "w0 (µm)", "z (mm)"}, [][]string{
+		return Table(table.Table{Caption: "Waists", Header: []string{"element", "w0 (µm)", "z (mm)"}, Rows: [][]string{
 			{"L1", "412.0", "0.0"},
 			{"L2", "35.2"},
-		})
+		}})
 	})
 	want := "Waists\n" +
 		"element  w0 (µm)  z (mm)\n" +
 		"-------  -------  ------\n" +
 		"L1       412.0    0.0\n" +
-		"L2       35.2     \n"
+		"L2       35.2\n"
 	if got != want {
 		t.Errorf("Table text =\n%q\nwant\n%q", got, want)
 	}
 }
 
 func TestTableHTMLEscapes(t *testing.T) {
-	got := tableHTML("a<b", []string{"x&y"}, [][]string{{"<script>"}})
+	got := tableHTML(table.Table{Caption: "a<b", Header: []string{"x&y"}, Rows: [][]string{{"<script>"}}})
 	for _, want := range []string{"<caption>a&lt;b</caption>", "<th>x&amp;y</th>", "<td>&lt;script&gt;</td>"} {
 		if !strings.Contains(got, want) {
 			t.Errorf("tableHTML = %s, want it to contain %s", got, want)
@@ -51,7 +53,7 @@ func TestTableHTMLEscapes(t *testing.T) {
 }
 
 func TestTableRowTooLong(t *testing.T) {
-	if err := Table("t", []string{"a"}, [][]string{{"1", "2"}}); err == nil {
+	if err := Table(table.Table{Caption: "t", Header: []string{"a"}, Rows: [][]string{{"1", "2"}}}); err == nil {
 		t.Error("Table with a row longer than the header: no error")
 	}
 }

@@ -107,7 +107,7 @@ func TestTiltedMirrorNotHandProjected(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	sys, err := paraxial.NewBuilder().Space(1*mm).FlatMirror(45*units.Degree).Label("M1").Aperture(paraxial.ClearRadius(4.5*mm)).Space(1*mm).Build()
+	sys, err := paraxial.NewBuilder().Space(1 * mm).FlatMirror(45 * units.Degree).Label("M1").Aperture(paraxial.ClearRadius(4.5 * mm)).Space(1 * mm).Build()
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -133,7 +133,7 @@ func TestTubeClips(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	sys, err := paraxial.NewBuilder().Space(10*mm).Space(50*mm).Label("tube").Aperture(paraxial.ClearRadius(1*mm)).Space(10*mm).Build()
+	sys, err := paraxial.NewBuilder().Space(10 * mm).Space(50 * mm).Label("tube").Aperture(paraxial.ClearRadius(1 * mm)).Space(10 * mm).Build()
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -163,7 +163,7 @@ func TestOwnThreshold(t *testing.T) {
 		d   units.Length
 		low bool
 	}{{60 * um, false}, {20 * um, true}} {
-		sys, err := paraxial.NewBuilder().Space(1*units.Millimeter).
+		sys, err := paraxial.NewBuilder().Space(1 * units.Millimeter).
 			Diaphragm(paraxial.ClearDiameter(test.d).WithMinTransmission(0.5)).Label("pinhole").Space(1 * units.Millimeter).Build()
 		if err != nil {
 			t.Fatal(err)

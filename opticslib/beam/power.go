@@ -312,6 +312,16 @@ func Clipping(sys paraxial.System, in Input, minTransmission float64) ([]Clip, e
 	return out, nil
 }
 
+// Clipping is [Clipping] for the system and input beam that c was
+// sampled from ([Sample], [SampleRange]); it returns a [*ParamError] for a
+// caustic made otherwise.
+func (c Caustic) Clipping(minTransmission float64) ([]Clip, error) {
+	if c.sys.Validate() != nil {
+		return nil, &ParamError{Param: "caustic", Reason: "need a caustic made by Sample or SampleRange"}
+	}
+	return Clipping(c.sys, c.in, minTransmission)
+}
+
 // PeakIrradiance returns the on-axis peak irradiance of a Gaussian beam of
 // power P (watts) with 1/e² radii wx and wy (metres), in W/m²:
 //

@@ -91,12 +91,13 @@ var ErrOption = errors.New("optplot: MinTransmission must lie in (0, 1]")
 // envelope differs from the x envelope it is drawn dashed, with a legend.
 // c is usually the result of [beam.Sample] for the same sys.
 //
-// Clear apertures are drawn as stops at ±a on the element bars; a stop is
-// drawn in the warning colour when it passes less than the
-// [MinTransmission] threshold ([beam.CircularTransmission] with the radii
-// of c at the element). A stop that passes and lies beyond twice the
-// largest beam radius is left out, so that wide optics do not squash the
-// envelope.
+// Clear apertures are drawn as stops at the edges of the opening in x on
+// the element bars, and tubes (apertures on spaces) as lines along the
+// gap; one is drawn in the warning colour when it passes less than its
+// threshold: the opening's own, or the [MinTransmission] option (the
+// results of [beam.Caustic.Clipping], for a c made by [beam.Sample]). A
+// stop that passes and lies beyond twice the largest beam radius is left
+// out, so that wide optics do not squash the envelope.
 //
 // It returns [ErrCaustic] if c has fewer than two points, the slices
 // differ in length, or a value is not finite, and [ErrOption] for a bad
@@ -122,7 +123,7 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (*plot.Plot, e
 	wmax := 0.0
 	astig := false
 	for i := range n {
-		z, w, v := c.Z[i]*1e3, c.W[i]*1e3, wy[i]*1e3
+		z, w, v := c.Z[i].Millimeters(), c.W[i].Millimeters(), wy[i].Millimeters()
 		if !finite(z) || !finite(w) || !finite(v) {
 			return nil, ErrCaustic
 		}
@@ -175,7 +176,7 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (*plot.Plot, e
 		// ray: compute it once, not once per ray.
 		ms := make([]paraxial.Matrix, n)
 		for i, z := range c.Z {
-			m, err := sys.MatrixTo(units.Length(z))
+			m, err := sys.MatrixTo(z, paraxial.Tangential)
 			if err != nil {
 				return nil, err
 			}
@@ -189,7 +190,7 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (*plot.Plot, e
 				if !finite(y) {
 					return nil, ErrCaustic
 				}
-				xys[i] = plotter.XY{X: c.Z[i] * 1e3, Y: y}
+				xys[i] = plotter.XY{X: c.Z[i].Millimeters(), Y: y}
 			}
 			l, err := plotter.NewLine(xys)
 			if err != nil {
@@ -250,26 +251,45 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (*plot.Plot, e
 	if err != nil {
 		return nil, err
 	}
+	// Clipping results by element, when c knows its system and beam.
+	clips := map[int]beam.Clip{}
+	if cl, err := c.Clipping(cfg.minT); err == nil {
+		for _, k := range cl {
+			clips[k.Element] = k
+		}
+	}
 	for i := range marks.Marks {
 		mk := &marks.Marks[i]
 		if !cfg.labels {
 			mk.Label = ""
 		}
-		if mk.Aperture > 0 {
-			wx, wyy := sampleAt(c.Z, c.W, wy, mk.Z*1e-3)
-			t := beam.CircularTransmission(units.Length(mk.Aperture*1e-3), units.Length(wx), units.Length(wyy))
-			mk.Clipped = t < cfg.minT
-			if mk.Clipped && mk.Label != "" {
-				mk.Label += " · passes " + below(t, cfg.minT)
-			}
-			// A stop far outside the beam would only squash the
-			// envelope: draw a default-height bar instead.
-			if !mk.Clipped && mk.Aperture > farStop*wmax {
-				mk.Aperture, mk.HalfHeight = 0, 1.15*wmax
+		if !mk.Stop {
+			continue
+		}
+		if k, ok := clips[mk.Element]; ok && k.Low {
+			mk.Clipped = true
+			if mk.Label != "" {
+				mk.Label += " · passes " + below(k.Transmission, k.MinTransmission)
 			}
 		}
+		// A stop far outside the beam would only squash the envelope:
+		// draw a default-height bar instead.
+		if !mk.Clipped && mk.half() > farStop*wmax {
+			mk.Stop, mk.Low, mk.High = false, -1.15*wmax, 1.15*wmax
+		}
 	}
-	if len(marks.Marks) > 0 {
+	tubes := marks.Tubes[:0]
+	for _, tb := range marks.Tubes {
+		if k, ok := clips[tb.Element]; ok && k.Low {
+			tb.Clipped = true
+		}
+		if !tb.Clipped && math.Max(math.Abs(tb.Low), math.Abs(tb.High)) > farStop*wmax {
+			continue
+		}
+		tubes = append(tubes, tb)
+	}
+	marks.Tubes = tubes
+	if len(marks.Marks)+len(marks.Tubes) > 0 {
 		p.Add(marks)
 	}
 
@@ -293,18 +313,6 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (*plot.Plot, e
 		p.X.Max = p.X.Min + 1
 	}
 	return p, nil
-}
-
-// sampleAt returns the radii (metres) of the sample at position z
-// (metres), or of the nearest sample.
-func sampleAt(zs, w, wy []float64, z float64) (float64, float64) {
-	best, d := 0, math.Inf(1)
-	for i, v := range zs {
-		if e := math.Abs(v - z); e < d {
-			best, d = i, e
-		}
-	}
-	return w[best], wy[best]
 }
 
 // below formats the transmitted fraction t < threshold as a percentage

@@ -32,7 +32,7 @@ func expander(t testing.TB) (beam.Caustic, paraxial.System) {
 	t.Helper()
 	sys, err := paraxial.NewBuilder().
 		Space(50*mm).
-		ThinLens(50*mm).Label("L1").Aperture(2*mm).
+		ThinLens(50*mm).Label("L1").Aperture(paraxial.ClearRadius(2*mm)).
 		Space(200*mm).
 		ThinLens(150*mm).Label("L2").
 		Space(100*mm).
@@ -42,7 +42,7 @@ func expander(t testing.TB) (beam.Caustic, paraxial.System) {
 	if err != nil {
 		t.Fatalf("Build error: %v", err)
 	}
-	in, err := beam.FromWaist(0.5*mm, 0, 1064*units.Nanometer, 1)
+	in, err := beam.FromWaist(beam.WaistSpec{WaistRadius: 0.5 * mm, Wavelength: 1064 * units.Nanometer})
 	if err != nil {
 		t.Fatalf("FromWaist error: %v", err)
 	}
@@ -78,13 +78,13 @@ func mustSVG(t testing.TB, p *plot.Plot, w, h vg.Length) []byte {
 func astigmatic(t testing.TB) []byte {
 	t.Helper()
 	sys, err := paraxial.NewBuilder().
-		Space(30*mm).CylindricalLens(60*mm, paraxial.Tangential).Label("CX").Aperture(1.2 * mm).
-		Space(60 * mm).ThinLens(40 * mm).Label("L1").Aperture(3 * mm).
+		Space(30*mm).CylindricalLens(60*mm, paraxial.Tangential).Label("CX").Aperture(paraxial.ClearRadius(1.2 * mm)).
+		Space(60 * mm).ThinLens(40 * mm).Label("L1").Aperture(paraxial.ClearRadius(3 * mm)).
 		Space(150 * mm).Build()
 	if err != nil {
 		t.Fatalf("Build error: %v", err)
 	}
-	in, err := beam.FromWaist(1*mm, 0, 780*units.Nanometer, 1)
+	in, err := beam.FromWaist(beam.WaistSpec{WaistRadius: 1 * mm, Wavelength: 780 * units.Nanometer})
 	if err != nil {
 		t.Fatalf("FromWaist error: %v", err)
 	}
@@ -184,11 +184,11 @@ func TestCausticErrors(t *testing.T) {
 		c    beam.Caustic
 	}{
 		{"empty", beam.Caustic{}},
-		{"one point", beam.Caustic{Z: []float64{0}, W: []float64{1}}},
-		{"length mismatch", beam.Caustic{Z: []float64{0, 1}, W: []float64{1}}},
-		{"NaN", beam.Caustic{Z: []float64{0, 1}, W: []float64{1, math.NaN()}}},
-		{"WY length", beam.Caustic{Z: []float64{0, 1}, W: []float64{1, 1}, WY: []float64{1}}},
-		{"WY Inf", beam.Caustic{Z: []float64{0, 1}, W: []float64{1, 1}, WY: []float64{1, math.Inf(1)}}},
+		{"one point", beam.Caustic{Z: []units.Length{0}, W: []units.Length{1}}},
+		{"length mismatch", beam.Caustic{Z: []units.Length{0, 1}, W: []units.Length{1}}},
+		{"NaN", beam.Caustic{Z: []units.Length{0, 1}, W: []units.Length{1, units.Length(math.NaN())}}},
+		{"WY length", beam.Caustic{Z: []units.Length{0, 1}, W: []units.Length{1, 1}, WY: []units.Length{1}}},
+		{"WY Inf", beam.Caustic{Z: []units.Length{0, 1}, W: []units.Length{1, 1}, WY: []units.Length{1, units.Length(math.Inf(1))}}},
 	} {
 		if _, err := Caustic(test.c, sys); err != ErrCaustic {
 			t.Errorf("%s: Caustic error = %v, want ErrCaustic", test.name, err)
@@ -233,5 +233,46 @@ func TestEmptyPlotterRanges(t *testing.T) {
 		if !finite(a) || !finite(b) || !finite(c) || !finite(d) || !(a < b && c < d) {
 			t.Errorf("%s DataRange() = %g, %g, %g, %g; want a finite non-empty range", test.name, a, b, c, d)
 		}
+	}
+}
+
+// The marks show tubes (apertures on spaces) and the projected opening of
+// a tilted part (a·cos θ in x, analytic geometry), and flag what clips:
+// a 1 mm tube around a 1 mm beam passes 86 % (R09 closed form).
+func TestMarksTubesAndTilt(t *testing.T) {
+	sys, err := paraxial.NewBuilder().Space(10 * mm).Space(40 * mm).Label("tube").Aperture(paraxial.ClearRadius(1 * mm)).
+		Space(10 * mm).FlatMirror(60 * units.Degree).Label("M").Aperture(paraxial.ClearRadius(4 * mm)).Space(10 * mm).Build()
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := NewMarks(sys, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(m.Tubes) != 1 || m.Tubes[0].Z0 != 10 || m.Tubes[0].Z1 != 50 || m.Tubes[0].High != 1 {
+		t.Errorf("tubes = %+v, want one from 10 to 50 mm at ±1 mm", m.Tubes)
+	}
+	if len(m.Marks) != 1 || !m.Marks[0].Stop || math.Abs(m.Marks[0].High-2) > 1e-12 || math.Abs(m.Marks[0].Low+2) > 1e-12 {
+		t.Errorf("mirror mark = %+v, want a stop at ±4 mm·cos 60° = ±2 mm", m.Marks)
+	}
+	in, err := beam.FromWaist(beam.WaistSpec{WaistRadius: 1 * mm, Wavelength: 1064 * units.Nanometer})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c, err := beam.Sample(sys, in, 50)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := Caustic(c, sys)
+	if err != nil {
+		t.Fatal(err)
+	}
+	svg, err := SVG(p, 12*vg.Centimeter, 6*vg.Centimeter)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// The clipping tube is drawn in the warning colour (#D23C1E).
+	if !strings.Contains(string(svg), "stroke:#D23C1E") {
+		t.Errorf("caustic of a clipping tube has no stroke in the warning colour")
 	}
 }

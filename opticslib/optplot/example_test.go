@@ -25,7 +25,7 @@ func ExampleCaustic() {
 		fmt.Println(err)
 		return
 	}
-	in, _ := beam.FromWaist(0.5*mm, 0, 1064*units.Nanometer, 1)
+	in, _ := beam.FromWaist(beam.WaistSpec{WaistRadius: 0.5 * mm, Wavelength: 1064 * units.Nanometer})
 	c, err := beam.Sample(sys, in, 300)
 	if err != nil {
 		fmt.Println(err)

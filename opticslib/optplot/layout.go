@@ -42,7 +42,7 @@ type layoutConfig struct {
 	title      string
 	z0, z1     float64 // mm; z0 == z1 means automatic
 	halfHeight float64 // mm; 0 means automatic
-	apertures  *paraxial.Apertures
+	stops      *paraxial.Stops
 	labels     bool
 }
 
@@ -62,10 +62,10 @@ func LayoutHalfHeight(h units.Length) LayoutOption {
 	return func(c *layoutConfig) { c.halfHeight = h.Millimeters() }
 }
 
-// LayoutApertures marks the aperture stop and the pupils found by
-// [paraxial.System.Apertures].
-func LayoutApertures(a paraxial.Apertures) LayoutOption {
-	return func(c *layoutConfig) { c.apertures = &a }
+// LayoutStops marks the aperture stop and the pupils found by
+// [paraxial.System.Stops].
+func LayoutStops(a paraxial.Stops) LayoutOption {
+	return func(c *layoutConfig) { c.stops = &a }
 }
 
 // LayoutLabels controls the element labels under the drawing (default on).
@@ -78,7 +78,7 @@ var ErrLayout = errors.New("optplot: layout needs a non-empty system, a finite r
 // Layout returns a to-scale drawing of sys with the ray fans traced
 // through it (see [paraxial.System.Fan]): optical axis, glass outlined
 // from its radii and thicknesses, thin lenses as slim silhouettes, mirrors,
-// diaphragms, and, with [LayoutApertures], the stop and pupils. Both axes
+// diaphragms, and, with [LayoutStops], the stop and pupils. Both axes
 // are in millimetres; because optical systems are long and thin, the
 // vertical scale is usually stretched, and the drawing states the factor
 // in its lower left corner.
@@ -222,8 +222,8 @@ func newOutline(sys paraxial.System, rays *FanLines, cfg layoutConfig) (*Outline
 	}
 	elems := sys.Elements()
 	stop := -1
-	if cfg.apertures != nil {
-		stop = cfg.apertures.Stop
+	if cfg.stops != nil {
+		stop = cfg.stops.Stop
 	}
 	// Semi-diameter of each element: aperture, else from the rays, else
 	// the default.
@@ -235,8 +235,10 @@ func newOutline(sys paraxial.System, rays *FanLines, cfg layoutConfig) (*Outline
 	}
 	for i, e := range elems {
 		switch {
-		case e.Aperture > 0:
-			semi[i] = e.Aperture.Millimeters()
+		case e.Aperture.Limited():
+			// The drawn semi-diameter is the part's clear radius: the
+			// layout shows the part, not its projection.
+			semi[i] = e.Aperture.Radius.Millimeters()
 		case cfg.halfHeight > 0:
 			semi[i] = cfg.halfHeight
 		case rayMax[i] > 0:
@@ -314,7 +316,7 @@ func newOutline(sys paraxial.System, rays *FanLines, cfg layoutConfig) (*Outline
 		}
 		o.Parts = append(o.Parts, part)
 	}
-	if a := cfg.apertures; a != nil {
+	if a := cfg.stops; a != nil {
 		for _, pu := range []struct {
 			p     paraxial.Pupil
 			label string

@@ -19,16 +19,16 @@ func ExampleLayout() {
 	// detector, with an iris as aperture stop.
 	sys, err := paraxial.NewBuilder().
 		Space(70*mm).
-		Diaphragm(5*mm).Label("iris").
+		Diaphragm(paraxial.ClearRadius(5*mm)).Label("iris").
 		Space(5*mm).
-		ThickLens(51.5*mm, paraxial.Flat, 4*mm, 1.5168).Label("PCX").Aperture(12.7 * mm).
+		ThickLens(51.5*mm, paraxial.Flat, 4*mm, 1.5168).Label("PCX").Aperture(paraxial.ClearRadius(12.7 * mm)).
 		Space(220 * mm).
 		Build()
 	if err != nil {
 		fmt.Println(err)
 		return
 	}
-	a, err := sys.Apertures(paraxial.ObjectAt(0), paraxial.Tangential)
+	a, err := sys.Stops(paraxial.ObjectAt(0), paraxial.Tangential)
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -42,7 +42,7 @@ func ExampleLayout() {
 		}
 		fans = append(fans, f)
 	}
-	p, err := optplot.Layout(sys, fans, optplot.LayoutApertures(a), optplot.LayoutTitle("2× relay"))
+	p, err := optplot.Layout(sys, fans, optplot.LayoutStops(a), optplot.LayoutTitle("2× relay"))
 	if err != nil {
 		fmt.Println(err)
 		return

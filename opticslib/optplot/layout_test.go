@@ -27,14 +27,14 @@ func relayLayout(t testing.TB) []byte {
 	sys, err := paraxial.NewBuilder().
 		Append(relay).
 		Plate(1*mm, 1.5168, 0).Label("cover").
-		Space(20*mm).
-		Mirror(paraxial.Flat, 45*units.Degree).Label("fold").
+		Space(20 * mm).
+		FlatMirror(45 * units.Degree).Label("fold").
 		Space(10 * mm).
 		Build()
 	if err != nil {
 		t.Fatalf("Build: %v", err)
 	}
-	a, err := sys.Apertures(paraxial.ObjectAt(0), paraxial.Tangential)
+	a, err := sys.Stops(paraxial.ObjectAt(0), paraxial.Tangential)
 	if err != nil {
 		t.Fatalf("Apertures: %v", err)
 	}
@@ -46,7 +46,7 @@ func relayLayout(t testing.TB) []byte {
 		}
 		fans = append(fans, f)
 	}
-	p, err := Layout(sys, fans, LayoutApertures(a), LayoutTitle("4f relay"))
+	p, err := Layout(sys, fans, LayoutStops(a), LayoutTitle("4f relay"))
 	if err != nil {
 		t.Fatalf("Layout: %v", err)
 	}
@@ -68,7 +68,7 @@ func TestFanLinesBlocked(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	a, _ := sys.Apertures(paraxial.ObjectAt(0), 0)
+	a, _ := sys.Stops(paraxial.ObjectAt(0), 0)
 	f, err := sys.Fan(a, paraxial.Field{Height: 8 * mm}, 3, sys.Length())
 	if err != nil {
 		t.Fatal(err)

@@ -31,22 +31,41 @@ var (
 // Mark is one zero-thickness element drawn by [Marks], in plot units
 // (millimetres).
 type Mark struct {
+	// Element is the element's index in the system.
+	Element int
 	// Z is the axial position in mm.
 	Z float64
-	// HalfHeight is the half-length of the bar in mm: the clear aperture
-	// when set, otherwise the default height of the [Marks].
-	HalfHeight float64
+	// Low and High are the ends of the bar in mm across the beam (x): the
+	// edges of the clear aperture in the tangential plane when it has one
+	// (projected by cos θ on a tilted part, shifted by its offset),
+	// otherwise ∓ the default height of the [Marks].
+	Low, High float64
 	// Kind is the element type.
 	Kind paraxial.Kind
 	// Converging is true for a thin lens with f > 0.
 	Converging bool
 	// Label is drawn above the bar.
 	Label string
-	// Aperture is the clear-aperture radius in mm, 0 when unlimited; it
-	// is drawn as a pair of stops at ±Aperture.
-	Aperture float64
+	// Stop is true when the element has a clear aperture that limits x;
+	// it is drawn as a pair of jaws at Low and High.
+	Stop bool
 	// Clipped draws the stops in the warning colour: the aperture passes
-	// less than the threshold of the plot.
+	// less than its threshold (beam.Clipping).
+	Clipped bool
+}
+
+// Tube is an aperture on a space, drawn by [Marks] as a pair of lines
+// along the gap at the edges of the opening, in mm.
+type Tube struct {
+	// Element is the space's index in the system.
+	Element int
+	// Z0 and Z1 are the ends of the tube in mm.
+	Z0, Z1 float64
+	// Low and High are the edges of the opening across the beam (x).
+	Low, High float64
+	// Label names the tube.
+	Label string
+	// Clipped draws the tube in the warning colour.
 	Clipped bool
 }
 
@@ -55,6 +74,8 @@ type Mark struct {
 type Marks struct {
 	// Marks holds the elements, in system order.
 	Marks []Mark
+	// Tubes holds the spaces with a clear aperture, in system order.
+	Tubes []Tube
 	// LineStyle is the style of lens bars; interface bars use the same
 	// width in InterfaceColor.
 	draw.LineStyle
@@ -75,10 +96,10 @@ var (
 var errNoFinite = errors.New("optplot: element position or size is not finite")
 
 // NewMarks returns a [Marks] plotter for the zero-thickness elements of
-// sys (spaces are skipped). halfHeight (mm, > 0, finite) is the bar
-// half-length for elements without a clear aperture. An element without a
-// label is labelled with its parameter, for example "f 100 mm" or
-// "R -50 mm".
+// sys and for its tubes (spaces with a clear aperture). halfHeight (mm,
+// > 0, finite) is the bar half-length for elements without a clear
+// aperture. An element without a label is labelled with its parameter, for
+// example "f 100 mm" or "R -50 mm".
 func NewMarks(sys paraxial.System, halfHeight float64) (*Marks, error) {
 	if !(halfHeight > 0) || math.IsInf(halfHeight, 0) {
 		return nil, errors.New("optplot: marker half-height must be positive and finite")
@@ -93,19 +114,24 @@ func NewMarks(sys paraxial.System, halfHeight float64) (*Marks, error) {
 			Handler: plot.DefaultTextHandler,
 		},
 	}
-	for _, e := range sys.Elements() {
+	for pc := range sys.Walk(0, sys.Length()) {
+		e := sys.Element(pc.Element)
+		lo, hi, limited := e.Aperture.Limits(paraxial.Tangential, e.Tilt)
+		lo, hi = lo*1e3, hi*1e3
 		if !e.IsSurface() {
+			if limited {
+				m.Tubes = append(m.Tubes, Tube{Element: pc.Element, Z0: pc.From.Millimeters(), Z1: pc.To.Millimeters(), Low: lo, High: hi, Label: e.Label})
+			}
 			continue
 		}
-		mk := Mark{Z: e.Z.Millimeters(), HalfHeight: halfHeight, Kind: e.Kind, Label: e.Label, Converging: e.Focal > 0}
-		if e.Aperture > 0 {
-			mk.HalfHeight = e.Aperture.Millimeters()
-			mk.Aperture = mk.HalfHeight
+		mk := Mark{Element: pc.Element, Z: e.Z.Millimeters(), Low: -halfHeight, High: halfHeight, Kind: e.Kind, Label: e.Label, Converging: e.Focal > 0}
+		if limited {
+			mk.Low, mk.High, mk.Stop = lo, hi, true
 		}
 		if mk.Label == "" {
 			mk.Label = defaultLabel(e)
 		}
-		if math.IsNaN(mk.Z) || math.IsInf(mk.Z, 0) || math.IsInf(mk.HalfHeight, 0) {
+		if !finite(mk.Z) || !finite(mk.Low) || !finite(mk.High) {
 			return nil, errNoFinite
 		}
 		m.Marks = append(m.Marks, mk)
@@ -136,12 +162,23 @@ func (m *Marks) Plot(c draw.Canvas, plt *plot.Plot) {
 		haveLast         bool
 		lastRight, lastY vg.Length
 	)
+	for _, tb := range m.Tubes {
+		// Tubes: thin lines along the gap at the edges of the opening.
+		st := draw.LineStyle{Color: stopColor, Width: vg.Points(0.9)}
+		if tb.Clipped {
+			st = draw.LineStyle{Color: warnColor, Width: vg.Points(1.6)}
+		}
+		x0, x1 := trX(tb.Z0), trX(tb.Z1)
+		for _, y := range []float64{tb.Low, tb.High} {
+			c.StrokeLine2(st, x0, trY(y), x1, trY(y))
+		}
+	}
 	for _, mk := range m.Marks {
 		x := trX(mk.Z)
 		if !c.ContainsX(x) {
 			continue
 		}
-		top, bot := trY(mk.HalfHeight), trY(-mk.HalfHeight)
+		top, bot := trY(mk.High), trY(mk.Low)
 		sty := m.LineStyle
 		if mk.Kind != paraxial.KindThinLens {
 			sty.Color = m.InterfaceColor
@@ -160,9 +197,9 @@ func (m *Marks) Plot(c draw.Canvas, plt *plot.Plot) {
 				c.StrokeLines(sty, []vg.Point{{X: x - head, Y: base}, {X: x, Y: tip}, {X: x + head, Y: base}})
 			}
 		}
-		if mk.Aperture > 0 {
-			// Stops: short horizontal jaws at ±a, heavier and in the
-			// warning colour when the aperture clips the beam.
+		if mk.Stop {
+			// Stops: short horizontal jaws at the edges, heavier and in
+			// the warning colour when the aperture clips the beam.
 			st := draw.LineStyle{Color: stopColor, Width: vg.Points(1.2)}
 			jaw := vg.Points(5)
 			if mk.Clipped {
@@ -194,8 +231,17 @@ func (m *Marks) Plot(c draw.Canvas, plt *plot.Plot) {
 // mm. Without marks it is the unit range (0, 1, −1, 1), so that an empty
 // Marks never gives the plot an infinite range.
 func (m *Marks) DataRange() (xmin, xmax, ymin, ymax float64) {
-	return barRange(len(m.Marks), func(i int) (float64, float64) { return m.Marks[i].Z, m.Marks[i].HalfHeight })
+	xmin, xmax, ymin, ymax = barRange(len(m.Marks), func(i int) (float64, float64) { return m.Marks[i].Z, m.Marks[i].half() })
+	for _, tb := range m.Tubes {
+		h := math.Max(math.Abs(tb.Low), math.Abs(tb.High))
+		xmin, xmax = math.Min(xmin, tb.Z0), math.Max(xmax, tb.Z1)
+		ymin, ymax = math.Min(ymin, -h), math.Max(ymax, h)
+	}
+	return xmin, xmax, ymin, ymax
 }
+
+// half returns the larger distance of the bar's ends from the axis.
+func (mk Mark) half() float64 { return math.Max(math.Abs(mk.Low), math.Abs(mk.High)) }
 
 // barRange returns the data range of n vertical bars, bar i at position
 // and half-height at(i), symmetric about the axis: the unit range (0, 1,
@@ -238,7 +284,10 @@ func (m *Marks) Thumbnail(c *draw.Canvas) {
 func (m *Marks) maxHalfHeight() float64 {
 	h := 0.0
 	for _, mk := range m.Marks {
-		h = math.Max(h, mk.HalfHeight)
+		h = math.Max(h, mk.half())
+	}
+	for _, tb := range m.Tubes {
+		h = math.Max(h, math.Max(math.Abs(tb.Low), math.Abs(tb.High)))
 	}
 	return h
 }

@@ -416,7 +416,7 @@ func blocked(y units.Length, e *Element, p Plane) bool {
 	if !e.Aperture.Limited() {
 		return false
 	}
-	lo, hi, ok := e.Aperture.limits(p, e.Tilt)
+	lo, hi, ok := e.Aperture.Limits(p, e.Tilt)
 	if !ok {
 		return false
 	}

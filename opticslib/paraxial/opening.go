@@ -121,14 +121,14 @@ func (o Opening) validate() (param string, v any, reason string) {
 	return "", nil, ""
 }
 
-// limits returns the interval [lo, hi] of transverse positions in plane p
-// (metres, in the beam's frame) that the opening passes, on a part met at
-// angle of incidence tilt in the tangential plane, and ok = false when the
-// opening does not limit that plane. For a circle of radius a centred at
+// Limits returns the interval [lo, hi] of transverse positions in plane p
+// (metres from the axis, in the beam's frame) that the opening passes on a
+// part met at angle of incidence tilt in the tangential plane, and
+// ok = false when the opening does not limit that plane. For a circle of radius a centred at
 // (dx, dy) the interval along x is dx ± √(a² − dy²), empty (lo = hi) when
 // |dy| ≥ a; positions on the surface project onto the beam's frame with a
 // factor cos θ in the tangential plane.
-func (o Opening) limits(p Plane, tilt units.Angle) (lo, hi float64, ok bool) {
+func (o Opening) Limits(p Plane, tilt units.Angle) (lo, hi float64, ok bool) {
 	if !o.Limited() {
 		return 0, 0, false
 	}
@@ -159,7 +159,7 @@ func (o Opening) limits(p Plane, tilt units.Angle) (lo, hi float64, ok bool) {
 // the opening in plane p (metres, ≥ 0), the symmetric limit used by the
 // stop analysis, and ok = false when the opening does not limit p.
 func (o Opening) halfOpening(p Plane, tilt units.Angle) (float64, bool) {
-	lo, hi, ok := o.limits(p, tilt)
+	lo, hi, ok := o.Limits(p, tilt)
 	if !ok {
 		return 0, false
 	}

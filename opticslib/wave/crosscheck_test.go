@@ -80,7 +80,7 @@ func TestCrossCheckPropagateNumPy(t *testing.T) {
 		lambda := []float64{633e-9, 1064e-9}[rng.IntN(2)]
 		n := []float64{1, 1.5}[rng.IntN(2)]
 		zR := math.Pi * w0 * w0 * n / lambda
-		g, err := beam.FromWaist(units.Length(w0), units.Length(zR*(2*rng.Float64()-1)), units.Length(lambda), n)
+		g, err := beam.FromWaist(beam.WaistSpec{WaistRadius: units.Length(w0), WaistZ: units.Length(zR * (2*rng.Float64() - 1)), Wavelength: units.Length(lambda), Index: n})
 		if err != nil {
 			t.Fatalf("FromWaist error: %v", err)
 		}

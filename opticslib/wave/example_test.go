@@ -33,7 +33,7 @@ import (
 func ExampleLine_Propagate() {
 	// Check the q-law against an FFT propagation over 3 Rayleigh ranges.
 	// The exact kernel is 1.3e-5 wider: non-paraxial physics, θ0²/3.
-	g, err := beam.FromWaist(50*units.Micrometer, 0, 1*units.Micrometer, 1)
+	g, err := beam.FromWaist(beam.WaistSpec{WaistRadius: 50 * units.Micrometer, Wavelength: 1 * units.Micrometer})
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -59,8 +59,8 @@ func ExampleLine_Propagate() {
 func ExampleGrid_Propagate() {
 	// An elliptical beam (w0x = 40 µm, w0y = 80 µm, λ = 1 µm) over 20 mm:
 	// the FFT second-moment radii against the q-law of each plane.
-	gx, _ := beam.FromWaist(40*units.Micrometer, 0, 1*units.Micrometer, 1)
-	gy, _ := beam.FromWaist(80*units.Micrometer, 0, 1*units.Micrometer, 1)
+	gx, _ := beam.FromWaist(beam.WaistSpec{WaistRadius: 40 * units.Micrometer, Wavelength: 1 * units.Micrometer})
+	gy, _ := beam.FromWaist(beam.WaistSpec{WaistRadius: 80 * units.Micrometer, Wavelength: 1 * units.Micrometer})
 	in, err := wave.GridFromBeam(beam.Astigmatic{X: gx, Y: gy}, 256, 8*units.Micrometer)
 	if err != nil {
 		fmt.Println(err)

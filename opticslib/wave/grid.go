@@ -29,7 +29,7 @@ type Grid struct {
 // finite spacing, wavelength and index; otherwise an [*Error].
 func (g Grid) Validate() error {
 	if g.N >= 2 && len(g.U) != g.N*g.N {
-		return &Error{Param: "sample count len(U)", Value: float64(len(g.U)), Reason: "must be N² = " + strconv.Itoa(g.N*g.N)}
+		return &Error{Param: "sample count len(U)", Value: len(g.U), Reason: "must be N² = " + strconv.Itoa(g.N*g.N)}
 	}
 	return check(g.N, g.Dx, g.Wavelength, g.Index, g.U)
 }
@@ -46,6 +46,9 @@ func (g Grid) coord(i int) float64 { return float64(i-g.N/2) * float64(g.Dx) }
 // on-axis Gouy phase arctan(z/zR). It returns an error if b is invalid,
 // has M² ≠ 1, or n or dx is invalid.
 func GridFromBeam(b beam.Astigmatic, n int, dx units.Length) (Grid, error) {
+	if n > MaxGridSide {
+		return Grid{}, &Error{Param: "grid side n", Value: n, Reason: "must be at most " + strconv.Itoa(MaxGridSide) + " (an n×n grid of complex128 takes 16n² bytes)"}
+	}
 	if err := b.Validate(); err != nil {
 		return Grid{}, err
 	}
@@ -168,7 +171,7 @@ func (g Grid) SecondMomentRadii() (wx, wy units.Length) {
 // ref, as [Line.MaxDiff].
 func (g Grid) MaxDiff(ref Grid) (float64, error) {
 	if g.N != ref.N || len(g.U) != len(ref.U) || g.Dx != ref.Dx {
-		return 0, &Error{Param: "reference grid size N", Value: float64(ref.N), Reason: "must match the field (N = " + strconv.Itoa(g.N) + ", same Dx)"}
+		return 0, &Error{Param: "reference grid size N", Value: ref.N, Reason: "must match the field (N = " + strconv.Itoa(g.N) + ", same Dx)"}
 	}
 	return maxDiff(g.U, ref.U), nil
 }

@@ -2,6 +2,7 @@ package wave
 
 import (
 	"errors"
+	"github.com/beamnote/beamnote/opticslib/internal/errtext"
 	"math"
 	"math/cmplx"
 	"strconv"
@@ -65,41 +66,45 @@ var ErrUndersampled = errors.New("wave: field spectrum reaches the Nyquist frequ
 type Error struct {
 	// Param names the parameter, for example "spacing Dx".
 	Param string
-	// Value is the offending value, in SI units (metres for lengths).
-	Value float64
-	// Length is true when Value is a length (printed with units.Length).
-	Length bool
+	// Value is the offending value in SI units: a units.Length, a float64
+	// or an int.
+	Value any
 	// Reason states the requirement that Value fails.
 	Reason string
 }
 
 // Error implements the error interface.
 func (e *Error) Error() string {
-	v := strconv.FormatFloat(e.Value, 'g', -1, 64)
-	if e.Length {
-		v = units.Length(e.Value).String()
-	}
-	return "wave: " + e.Param + " = " + v + ": " + e.Reason
+	return errtext.Message("wave", "", e.Param, e.Value, e.Reason, nil)
 }
+
+// MaxLineSamples is the largest sample count of a [Line] (2²⁴ samples,
+// 256 MiB of complex128) and MaxGridSide the largest side of a [Grid]
+// (4096² samples, 256 MiB; the FFT needs a few more rows): beyond them a
+// notebook machine runs out of memory before it finishes.
+const (
+	MaxLineSamples = 1 << 24
+	MaxGridSide    = 4096
+)
 
 func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 
 func check(n int, dx, lambda units.Length, index float64, u []complex128) error {
 	if n < 2 {
-		return &Error{Param: "sample count N", Value: float64(n), Reason: "must be at least 2"}
+		return &Error{Param: "sample count N", Value: n, Reason: "must be at least 2"}
 	}
 	if !finite(float64(dx)) || !(dx > 0) {
-		return &Error{Param: "spacing Dx", Value: float64(dx), Length: true, Reason: "must be positive and finite"}
+		return &Error{Param: "spacing Dx", Value: dx, Reason: "must be positive and finite"}
 	}
 	if !finite(float64(lambda)) || !(lambda > 0) {
-		return &Error{Param: "wavelength λ0", Value: float64(lambda), Length: true, Reason: "must be positive and finite"}
+		return &Error{Param: "wavelength λ0", Value: lambda, Reason: "must be positive and finite"}
 	}
 	if !finite(index) || !(index > 0) {
 		return &Error{Param: "index n", Value: index, Reason: "must be positive and finite"}
 	}
 	for i, v := range u {
 		if !finite(real(v)) || !finite(imag(v)) {
-			return &Error{Param: "field sample " + strconv.Itoa(i), Value: math.NaN(), Reason: "must be finite"}
+			return &Error{Param: "field sample " + strconv.Itoa(i), Value: v, Reason: "must be finite"}
 		}
 	}
 	return nil
@@ -153,6 +158,9 @@ func profile(g beam.Gaussian, x float64) complex128 {
 // (1-D slice of the Gaussian beam of Kogelnik & Li 1966). It returns an
 // error if g is invalid or has M² ≠ 1, or n or dx is invalid.
 func LineFromBeam(g beam.Gaussian, n int, dx units.Length) (Line, error) {
+	if n > MaxLineSamples {
+		return Line{}, &Error{Param: "sample count n", Value: n, Reason: "must be at most " + strconv.Itoa(MaxLineSamples)}
+	}
 	if err := checkBeam(g, ""); err != nil {
 		return Line{}, err
 	}
@@ -188,10 +196,10 @@ func transfer(kern Kernel, k, z, k2 float64) complex128 {
 
 func checkZ(z units.Length, kern Kernel) error {
 	if !finite(float64(z)) {
-		return &Error{Param: "distance z", Value: float64(z), Length: true, Reason: "must be finite"}
+		return &Error{Param: "distance z", Value: z, Reason: "must be finite"}
 	}
 	if kern != Paraxial && kern != Exact {
-		return &Error{Param: "kernel", Value: float64(kern), Reason: "must be Paraxial or Exact"}
+		return &Error{Param: "kernel", Value: kern, Reason: "must be Paraxial or Exact"}
 	}
 	return nil
 }
@@ -314,7 +322,7 @@ func (l Line) SecondMomentRadius() units.Length {
 // fields are sampled differently, and +Inf if ref is zero.
 func (l Line) MaxDiff(ref Line) (float64, error) {
 	if len(l.U) != len(ref.U) || l.Dx != ref.Dx {
-		return 0, &Error{Param: "reference sample count", Value: float64(len(ref.U)), Reason: "must match the field (N = " + strconv.Itoa(len(l.U)) + ", same Dx)"}
+		return 0, &Error{Param: "reference sample count", Value: len(ref.U), Reason: "must match the field (N = " + strconv.Itoa(len(l.U)) + ", same Dx)"}
 	}
 	return maxDiff(l.U, ref.U), nil
 }

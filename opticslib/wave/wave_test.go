@@ -5,6 +5,7 @@ import (
 	"math"
 	"math/cmplx"
 	"math/rand/v2"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -21,7 +22,7 @@ const (
 
 func waist(t testing.TB, w0, lambda units.Length) beam.Gaussian {
 	t.Helper()
-	g, err := beam.FromWaist(w0, 0, lambda, 1)
+	g, err := beam.FromWaist(beam.WaistSpec{WaistRadius: w0, Wavelength: lambda})
 	if err != nil {
 		t.Fatalf("FromWaist error: %v", err)
 	}
@@ -54,7 +55,7 @@ func TestAngularSpectrumR15(t *testing.T) {
 	if got := in.U[n/2]; got != 1 {
 		t.Errorf("on-axis field at the waist = %v, want 1", got)
 	}
-	theta0 := float64(g0.Divergence())
+	theta0 := float64(g0.HalfDivergence())
 	for _, m := range []float64{1, 3, 10} {
 		z := units.Length(m * zR)
 		want, err := LineFromBeam(g0.Transform(paraxial.Space(z), 1), n, dx)
@@ -189,7 +190,7 @@ func TestUndersampled(t *testing.T) {
 	// x = 5 mm, far outside the beam) it does not. Angular spectrum
 	// sampling: Goodman, Introduction to Fourier Optics, ch. 2 [from
 	// memory]. The 2-D check is the same per axis.
-	g, err := beam.FromWaist(10*um, 5*mm, 1*um, 1)
+	g, err := beam.FromWaist(beam.WaistSpec{WaistRadius: 10 * um, WaistZ: 5 * mm, Wavelength: 1 * um})
 	if err != nil {
 		t.Fatalf("FromWaist error: %v", err)
 	}
@@ -246,8 +247,8 @@ func TestErrors(t *testing.T) {
 		{e3, "wave: M² = 1.5: a sampled field needs a TEM₀₀ beam (M² = 1)"},
 		{e4, "wave: wavelength λ0 = 0 m: must be positive and finite"},
 		{e5, "wave: distance z = NaN m: must be finite"},
-		{e6, "wave: kernel = 7: must be Paraxial or Exact"},
-		{e7, "wave: field sample 1 = NaN: must be finite"},
+		{e6, "wave: kernel = Kernel(7): must be Paraxial or Exact"},
+		{e7, "wave: field sample 1 = (NaN+0i): must be finite"},
 		{e8, "wave: sample count len(U) = 10: must be N² = 16"},
 		{e9, "wave: y M² = 1.5: a sampled field needs a TEM₀₀ beam (M² = 1)"},
 		{e10, "wave: reference sample count = 3: must match the field (N = 64, same Dx)"},
@@ -263,5 +264,20 @@ func TestErrors(t *testing.T) {
 		if !errors.As(test.err, &we) {
 			t.Errorf("error %q is %T, want *wave.Error", test.err, test.err)
 		}
+	}
+}
+
+// Sample counts that would need gigabytes are refused with an error, not
+// a panic or an out-of-memory kill.
+func TestSampleLimits(t *testing.T) {
+	g, err := beam.FromWaist(beam.WaistSpec{WaistRadius: 0.1e-3, Wavelength: 633e-9})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := LineFromBeam(g, MaxLineSamples+1, 1e-6); err == nil || !strings.Contains(err.Error(), "sample count n") {
+		t.Errorf("LineFromBeam(2²⁴+1) error = %v, want a sample-count error", err)
+	}
+	if _, err := GridFromBeam(beam.Astigmatic{X: g, Y: g}, 65536, 1e-6); err == nil || !strings.Contains(err.Error(), "grid side n = 65536") {
+		t.Errorf("GridFromBeam(65536) error = %v, want a grid-side error", err)
 	}
 }

@@ -17,7 +17,7 @@ import (
 // Value formats v for an error message: a [units.Length] with its unit
 // ("12.7 mm"), a [units.Angle] in degrees and radians ("95° (1.65806
 // rad)"), since users type angles in either, a float64 with 'g' and all
-// digits, an int in decimal, a string as it is, and a fmt.Stringer by its
+// digits, an int in decimal, a complex128 as (re+imi), a string as it is, and a fmt.Stringer by its
 // String method. A nil value gives "".
 func Value(v any) string {
 	switch x := v.(type) {
@@ -31,6 +31,8 @@ func Value(v any) string {
 		return strconv.FormatFloat(x, 'g', -1, 64)
 	case int:
 		return strconv.Itoa(x)
+	case complex128:
+		return strconv.FormatComplex(x, 'g', -1, 128)
 	case string:
 		return x
 	case interface{ String() string }:
