@@ -168,10 +168,10 @@ func clamp01(v float64) float64 { return math.Min(1, math.Max(0, v)) }
 
 // Clip is the clipping check of one clear aperture along the path.
 type Clip struct {
-	// Element is the index of the element in the system, and Name how
-	// messages name it ([paraxial.Element.Name]).
-	Element int
-	Name    string
+	// Element is the index of the element in the system, Name how
+	// messages name it ([paraxial.Element.Name]) and Label its label.
+	Element     int
+	Name, Label string
 	// Kind is the element kind; a tube is KindSpace.
 	Kind paraxial.Kind
 	// Z is the position of the checked plane, in metres: the element's
@@ -280,7 +280,7 @@ func Clipping(sys paraxial.System, in Input, minTransmission float64) ([]Clip, e
 			a = next
 			continue
 		}
-		c := Clip{Element: pc.Element, Name: e.Name(), Kind: e.Kind, Z: e.Z, Opening: e.Aperture, Tilt: e.Tilt, MinTransmission: minTransmission}
+		c := Clip{Element: pc.Element, Name: e.Name(), Label: e.Label, Kind: e.Kind, Z: e.Z, Opening: e.Aperture, Tilt: e.Tilt, MinTransmission: minTransmission}
 		if t := e.Aperture.MinTransmission; t > 0 {
 			c.MinTransmission, c.OwnThreshold = t, true
 		}
