@@ -411,18 +411,12 @@ type Step struct {
 }
 
 // blocked reports that height y lies outside the opening of e in plane p
-// (with a relative margin of [tieTolerance] of the opening's size).
+// (with a relative margin of [tieTolerance] of the opening's size, so that
+// marginal rays constructed to graze the stop pass).
 func blocked(y units.Length, e *Element, p Plane) bool {
-	if !e.Aperture.Limited() {
-		return false
-	}
-	lo, hi, ok := e.Aperture.Limits(p, e.Tilt)
-	if !ok {
-		return false
-	}
-	m := float64(e.Aperture.Radius) * tieTolerance
+	l := &e.lim[p&1]
 	v := float64(y)
-	return v < lo-m || v > hi+m
+	return l.ok && (v < l.lo || v > l.hi)
 }
 
 // Trace traces ray r, given at axial position from, element by element to
@@ -448,22 +442,35 @@ func (s System) Trace(r Ray, from, to units.Length, p Plane, dst []Step) ([]Step
 		return dst, ErrOrder
 	}
 	dst = append(dst, Step{Element: -1, Z: from, Ray: r})
-	for w := s.walker(from, to); w.next(); {
-		pc := &w.pc
-		switch {
-		case pc.e == nil:
-			r = Space(pc.to - pc.from).Apply(r)
-			if pc.i >= 0 || to < 0 {
-				dst = append(dst, Step{Element: pc.i, Z: pc.to, Ray: r})
-			}
-		case pc.e.Kind == KindSpace:
-			b := blocked(r.Y, pc.e, p)
-			r = Space(pc.to - pc.from).Apply(r)
-			dst = append(dst, Step{Element: pc.i, Z: pc.to, Ray: r, Blocked: b || blocked(r.Y, pc.e, p)})
-		default:
-			r = pc.e.matrix(p).Apply(r)
-			dst = append(dst, Step{Element: pc.i, Z: pc.e.Z, Ray: r, Blocked: blocked(r.Y, pc.e, p)})
+	// The walk of System.walker, written out for speed with its boundary
+	// rule clip.
+	if from < 0 {
+		r = Space(min(to, 0) - from).Apply(r)
+		if to < 0 {
+			dst = append(dst, Step{Element: -1, Z: to, Ray: r})
 		}
+	}
+	for i := range s.elems {
+		e := &s.elems[i] // not a copy: Element is large and this loop is hot
+		a, b, keep, stop := clip(e, from, to)
+		if stop {
+			break
+		}
+		if !keep {
+			continue
+		}
+		if e.Kind == KindSpace {
+			bl := blocked(r.Y, e, p)
+			r = Space(b - a).Apply(r)
+			dst = append(dst, Step{Element: i, Z: b, Ray: r, Blocked: bl || blocked(r.Y, e, p)})
+			continue
+		}
+		r = e.matrix(p).Apply(r)
+		dst = append(dst, Step{Element: i, Z: e.Z, Ray: r, Blocked: blocked(r.Y, e, p)})
+	}
+	if to > s.length {
+		r = Space(to - max(from, s.length)).Apply(r)
+		dst = append(dst, Step{Element: len(s.elems), Z: to, Ray: r})
 	}
 	if !finite(float64(r.Y)) || !finite(float64(r.Theta)) {
 		return dst, ErrOverflow

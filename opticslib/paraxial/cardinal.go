@@ -99,8 +99,8 @@ type Cardinal struct {
 // identity), or ok = false if there is none.
 func (s System) vertices() (first, last int, ok bool) {
 	first, last = -1, -1
-	for i, e := range s.elems {
-		if e.IsSurface() && e.Kind != KindDiaphragm {
+	for i := range s.elems {
+		if k := s.elems[i].Kind; k != KindSpace && k != KindDiaphragm {
 			if first < 0 {
 				first = i
 			}
@@ -114,9 +114,10 @@ func (s System) vertices() (first, last int, ok bool) {
 // p, and the product of their entrywise magnitudes (the scale for nearZero).
 func (s System) product(i, j int, p Plane) (m, bound Matrix) {
 	m, bound = Identity(), Identity()
-	for _, e := range s.elems[i:j] {
-		m = m.Then(e.matrix(p))
-		bound = bound.Then(e.matrix(p).abs())
+	for k := i; k < j; k++ {
+		em := s.elems[k].matrix(p)
+		m = m.Then(em)
+		bound = bound.Then(em.abs())
 	}
 	return m, bound
 }
@@ -124,8 +125,8 @@ func (s System) product(i, j int, p Plane) (m, bound Matrix) {
 // afocal reports whether m, the product of elements i..j−1, is afocal.
 func (s System) afocal(m Matrix, i, j int, p Plane) bool {
 	sum := 0.0
-	for _, e := range s.elems[i:j] {
-		sum += math.Abs(e.matrix(p).C)
+	for k := i; k < j; k++ {
+		sum += math.Abs(s.elems[k].matrix(p).C)
 	}
 	return math.Abs(m.C) <= AfocalTolerance*sum
 }

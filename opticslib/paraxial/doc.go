@@ -66,7 +66,7 @@
 //	mirror                  0        R (0 = flat), Tilt; unfolded, z keeps increasing
 //	cylindrical lens        0        f in one Plane
 //	matrix                  0        user X and Y
-//	diaphragm               0        opening radius = Aperture
+//	diaphragm               0        Aperture (circle or slit)
 //
 // A thick lens ([Builder.ThickLens]) and a plane-parallel plate
 // ([Builder.Plate]) are each expanded into three elements, front surface,
@@ -76,8 +76,35 @@
 // the glass with [System.MatrixTo] and [System.IndexAt].
 //
 // Positions z are measured from the input plane, z = 0, along the unfolded
-// axis. Elements are numbered from 0 in the order they were added to the
-// [Builder]; error messages use the same numbering.
+// axis. Positions relative to a part need no index arithmetic:
+// [System.Part] returns a labelled part's entrance and exit positions, and
+// the what-if edits take labels ([System.WithSpace], [System.Move],
+// [System.Replace]). Every element records the [Builder] call that added
+// it ([Element.Call], [Element.Method]); messages name parts by call and
+// label ([Element.Name], for example `ThickLens "L2" (call 4)`), never by
+// the index of an expanded element.
+//
+// # Mirrors
+//
+// Mirrors are entered as the part is labelled: [Builder.ConcaveMirror]
+// and [Builder.ConvexMirror] take the positive radius of curvature printed
+// on the part, [Builder.MirrorOfFocalLength] a signed focal length (f > 0
+// concave), [Builder.FlatMirror] nothing but the angle of incidence. The
+// signed radius of the convention above is kept for refracting surfaces
+// ([Builder.Interface], [Builder.ThickLens]) and for [Element.Radius];
+// [System.Prescription] prints mirrors as concave or convex.
+//
+// # Clear apertures
+//
+// A clear aperture is an [Opening]: a circle or a slit on the part's own
+// surface, possibly offset from the axis, with an optional threshold of its
+// own for the clipping check. Build it from a diameter ([ClearDiameter],
+// as optics, irises and pinholes are sold; [OneInchOptic],
+// [HalfInchOptic]) or a radius ([ClearRadius]); the argument types keep a
+// diameter from being passed as a radius. On a part met at angle θ, the
+// opening limits the tangential plane to its edges × cos θ ([Opening.Limits]);
+// the beam package stretches the beam's footprint by 1/cos θ instead. An
+// aperture on a space is a tube, checked along its length.
 //
 // Focal distances (FFL, BFL), vertices and real/virtual flags refer to
 // the first and last optical surface; a [KindDiaphragm] (iris, field
@@ -90,15 +117,22 @@
 // Every element carries a tangential (X) and a sagittal (Y) matrix. They
 // are equal for rotationally symmetric elements and differ for
 // cylindrical lenses, mirrors and plates at an angle of incidence, and user
-// matrices. Analyses take a [Plane]. [System.Matrix] and
-// [System.MatrixTo] return the tangential matrices, [System.MatrixY] and
-// [System.MatrixToY] the sagittal ones.
+// matrices. Every analysis and accessor takes the [Plane] as a parameter:
+// [System.Matrix](p), [System.MatrixTo](z, p), [System.Cardinal](p), …
+//
+// # One walk
+//
+// Every analysis here and in package beam walks a system in one way,
+// [System.Walk] (pieces: the part of each space inside a range, each
+// surface at a position in it, the input and output media beyond the
+// ends), so that the rules at the boundaries of a range are the same
+// everywhere.
 //
 // # Systems are values
 //
 // A [System] is immutable. What-if edits ([System.WithSpace],
-// [System.Replace], [System.Reverse]) return a new System and leave the old
-// one unchanged; a built system can be reused as a sub-assembly with
+// [System.Move], [System.Replace], [System.Reverse]) return a new System and
+// leave the old one unchanged; a built system can be reused as a sub-assembly with
 // [Builder.Append]. Methods that return slices return copies. Nothing in
 // this package modifies its arguments.
 //
@@ -110,15 +144,18 @@
 // (for example ThinLens(0) has C = -Inf). User data is validated once, by
 // [Builder]: the first bad value (NaN, ±Inf, n ≤ 0, negative thickness,
 // zero radius, …) is kept (a sticky error) and returned by [Builder.Build]
-// as an [*ElementError] naming the element index, kind, parameter and
-// value; an overflow of the composed matrix (finite but extreme inputs) is
-// an [*ElementError] wrapping [ErrOverflow] that names the element where
-// it happened. Analyses return sentinel errors ([ErrEmpty], [ErrAfocal],
+// as an [*ElementError] naming the builder call and its label, the
+// parameter and the value with its unit (angles in degrees and radians);
+// an overflow of the composed matrix (finite but extreme inputs) is an
+// [*ElementError] wrapping [ErrOverflow] that names the part where it
+// happened. The zero [System] is not a system: analyses and edits return
+// [ErrNotBuilt] for it. An unknown [Plane] value is [ErrPlane]. Analyses return sentinel errors ([ErrEmpty], [ErrAfocal],
 // [ErrNoStop], …) rather than NaN or Inf; degenerate but meaningful
 // results (an afocal system, a pupil at infinity) are reported by flags
 // with zero values, never by infinities. The one deliberate infinity is
 // the named radius [Flat], which a [Component] reports for a plane side.
 //
 // Functions panic only on programmer error: an element index out of range
-// in [System.Element], [System.WithSpace] or [System.Replace].
+// in [System.Element], and a Plane value other than the two constants in
+// the accessors that return no error ([System.Matrix], [Element.Matrix]).
 package paraxial

@@ -39,6 +39,11 @@ func assemble(elems []Element, comps []Component, nIn, nOut float64, method stri
 	for i := range s.elems {
 		e := &s.elems[i]
 		e.Z = z
+		for p := range e.lim {
+			lo, hi, ok := e.Aperture.Limits(Plane(p), e.Tilt)
+			m := float64(e.Aperture.Radius) * tieTolerance
+			e.lim[p] = limit{lo: lo - m, hi: hi + m, ok: ok}
+		}
 		z += e.Length
 		s.matrixX = s.matrixX.Then(e.X)
 		s.matrixY = s.matrixY.Then(e.Y)

@@ -185,6 +185,17 @@ type Element struct {
 	// differ for cylindrical lenses, tilted mirrors, tilted-plate surfaces
 	// and user matrices given with different planes.
 	X, Y Matrix
+
+	// lim holds Aperture.Limits in each plane, computed when the system is
+	// assembled, for the ray traces.
+	lim [2]limit
+}
+
+// limit is the interval of transverse positions an opening passes in one
+// plane, widened by the tie margin; ok is false when it does not limit.
+type limit struct {
+	lo, hi float64
+	ok     bool
 }
 
 // IsSurface reports whether e has zero thickness (every kind except

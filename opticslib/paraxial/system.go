@@ -230,27 +230,15 @@ func (w *walker) next() bool {
 		i := w.i
 		e := &w.elems[i] // not a copy: Element is large and this loop is hot
 		w.i++
-		if e.Kind == KindSpace {
-			end := e.Z + e.Length
-			if end < w.from || (end == w.from && e.Length > 0) {
-				continue
-			}
-			if e.Z > w.to || (e.Z == w.to && e.Length > 0) {
-				w.i = len(w.elems)
-				break
-			}
-			w.pc = piece{i: i, e: e, from: max(w.from, e.Z), to: min(w.to, end)}
-			return true
-		}
-		if e.Z < w.from {
-			continue
-		}
-		if e.Z > w.to {
+		a, b, keep, stop := clip(e, w.from, w.to)
+		if stop {
 			w.i = len(w.elems)
 			break
 		}
-		w.pc = piece{i: i, e: e, from: e.Z, to: e.Z}
-		return true
+		if keep {
+			w.pc = piece{i: i, e: e, from: a, to: b}
+			return true
+		}
 	}
 	w.done = true
 	if w.to > w.length {
@@ -258,6 +246,22 @@ func (w *walker) next() bool {
 		return true
 	}
 	return false
+}
+
+// clip is the boundary rule of the walk for element e and the range
+// [from, to]: keep reports that e contributes the piece [a, b] (a space
+// clipped to the range, or a surface at a = b = Z), stop that e and every
+// later element lie beyond the range. Hot loops that cannot afford the
+// walker (System.Trace) call it directly, so that the rule stays one.
+func clip(e *Element, from, to units.Length) (a, b units.Length, keep, stop bool) {
+	if e.Kind != KindSpace || e.Length == 0 {
+		// A surface, or a zero-length space: kept when inside [from, to].
+		return e.Z, e.Z, e.Z >= from && e.Z <= to, e.Z > to
+	}
+	// A space of positive length: kept when it overlaps the range by more
+	// than a point, clipped to it.
+	end := e.Z + e.Length
+	return max(from, e.Z), min(to, end), end > from && e.Z < to, e.Z >= to
 }
 
 // walk calls f for every piece of [System.walker] from ≤ to, in order; f
