@@ -166,7 +166,7 @@ func FuzzBuilder(f *testing.F) {
 			} else if k%2 == 0 {
 				v = y
 			}
-			switch ops[i] % 15 {
+			switch ops[i] % 17 {
 			case 0:
 				b.Space(units.Length(v))
 			case 1:
@@ -186,7 +186,16 @@ func FuzzBuilder(f *testing.F) {
 			case 8:
 				b.Plate(units.Length(v), y, units.Angle(x))
 			case 9:
-				b.ConvexMirror(units.Length(v), units.Angle(y))
+				switch ops[i+1] % 4 {
+				case 0:
+					b.ConcaveMirror(units.Length(v), units.Angle(y))
+				case 1:
+					b.ConvexMirror(units.Length(v), units.Angle(y))
+				case 2:
+					b.MirrorOfFocalLength(units.Length(v), units.Angle(y))
+				default:
+					b.FlatMirror(units.Angle(v))
+				}
 			case 10:
 				b.CylindricalLens(units.Length(v), Plane(ops[i+1]%3))
 			case 11:
@@ -199,6 +208,10 @@ func FuzzBuilder(f *testing.F) {
 				}
 			case 14:
 				b.Space(units.Length(math.Abs(v))).Aperture(ClearRadius(units.Length(math.Abs(y))))
+			case 15:
+				b.Aperture(ClearDiameter(units.Length(v)).Offset(units.Length(y), units.Length(v/3)).WithMinTransmission(y))
+			case 16:
+				b.Diaphragm(SlitOfWidth(units.Length(v), Plane(ops[i+1]%3)).Offset(units.Length(y), 0))
 			}
 		}
 		s, err := b.Build()
@@ -248,5 +261,22 @@ func FuzzBuilder(f *testing.F) {
 			t.Fatalf("MatrixTo(L/2) error: %v", err)
 		}
 		_ = s.Prescription().Text()
+		// Label edits never panic; they succeed or say why.
+		for _, e := range []func() (System, error){
+			func() (System, error) { return s.Move("x", units.Length(y)) },
+			func() (System, error) { return s.WithSpace("x", units.Length(math.Abs(x))) },
+			func() (System, error) { return s.Replace("x", System{}) },
+		} {
+			if r, err := e(); err == nil && r.Validate() != nil {
+				t.Fatalf("edit returned an unbuilt system without an error")
+			} else if err != nil && err.Error() == "" {
+				t.Fatalf("edit: empty error message")
+			}
+		}
+		for pc := range s.Walk(-units.Length(math.Abs(x)), s.Length()+units.Length(math.Abs(y))) {
+			if !finite(float64(pc.From)) && finite(x) && finite(y) {
+				t.Fatalf("Walk piece at non-finite position %+v", pc)
+			}
+		}
 	})
 }
