@@ -162,11 +162,8 @@ func FromWaist(s WaistSpec) (Gaussian, error) {
 	}
 	w := float64(w0)
 	zR := math.Pi * float64(w*w) * n / (m2 * float64(s.Wavelength))
-	g := Gaussian{Q: complex(-float64(s.WaistZ), zR), Wavelength: s.Wavelength, Index: n, M2: s.M2}
-	if err := g.Validate(); err != nil {
-		return Gaussian{}, err
-	}
-	return g, checkParaxial(g, given(s.WaistRadius, s.WaistDiameter), what)
+	return validated(Gaussian{Q: complex(-float64(s.WaistZ), zR), Wavelength: s.Wavelength, Index: n, M2: s.M2},
+		given(s.WaistRadius, s.WaistDiameter), what)
 }
 
 // FromWaists returns an elliptical beam (x and y waists at the same
@@ -229,11 +226,17 @@ func FromProfile(s ProfileSpec) (Gaussian, error) {
 	}
 	lambda := m2 * float64(s.Wavelength) / n
 	inv := complex(1/float64(r), -lambda/(math.Pi*float64(w*w)))
-	g := Gaussian{Q: 1 / inv, Wavelength: s.Wavelength, Index: n, M2: s.M2}
+	return validated(Gaussian{Q: 1 / inv, Wavelength: s.Wavelength, Index: n, M2: s.M2}, given(s.Radius, s.Diameter), what)
+}
+
+// validated returns g if it is a valid beam inside the paraxial range; w
+// is the radius or diameter the user gave, named what. A beam beyond
+// [MaxDivergence] is returned with the error, as the beam it is.
+func validated(g Gaussian, w units.Length, what string) (Gaussian, error) {
 	if err := g.Validate(); err != nil {
 		return Gaussian{}, err
 	}
-	return g, checkParaxial(g, given(s.Radius, s.Diameter), what)
+	return g, checkParaxial(g, w, what)
 }
 
 // radiusOrDiameter returns the radius from exactly one of r and d.
