@@ -463,12 +463,16 @@ func SampleRange(sys paraxial.System, in Input, z0, z1 units.Length, n int) (Cau
 	var gx, gy float64 // Gouy phase accumulated at pos
 	k := 0
 	emit := func(to units.Length, inclusive bool, from units.Length) {
+		if k >= m || !(zs[k] < to || (inclusive && zs[k] == to)) {
+			return
+		}
+		sx, sy := newStretch(cur.X, gx), newStretch(cur.Y, gy)
 		for k < m && (zs[k] < to || (inclusive && zs[k] == to)) {
 			d := float64(zs[k] - from)
-			c.W[k], c.Curvature[k], c.Gouy[k] = spaceSample(cur.X, d, gx)
+			c.W[k], c.Curvature[k], c.Gouy[k] = sx.at(d)
 			c.Index[k] = cur.X.Index
 			if !same {
-				c.WY[k], c.CurvatureY[k], c.GouyY[k] = spaceSample(cur.Y, d, gy)
+				c.WY[k], c.CurvatureY[k], c.GouyY[k] = sy.at(d)
 			}
 			k++
 		}
@@ -516,13 +520,29 @@ func SampleRange(sys paraxial.System, in Input, z0, z1 units.Length, n int) (Cau
 	return c, nil
 }
 
-// spaceSample returns the radius, wavefront curvature and accumulated Gouy
-// phase of beam g (given at the start of a homogeneous stretch, with Gouy
-// phase g0 there) at distance d into it.
-func spaceSample(g Gaussian, d, g0 float64) (units.Length, float64, units.Angle) {
-	h := g
-	h.Q += complex(d, 0)
-	return h.Radius(), h.WavefrontCurvature(), units.Angle(g0 + gouyStep(g, d))
+// stretch holds the constants of the closed forms of a beam along a
+// homogeneous stretch, from the beam q = z0 + i zR at its start (Gouy phase
+// g0 there):
+//
+//	w(d) = √(λ/(π zR)) · |z0 + d + i zR|,   1/R = (z0 + d)/((z0 + d)² + zR²)
+//	ψ(d) = g0 − arctan(z0/zR) + arctan((z0 + d)/zR)
+//
+// with λ = M²λ0/n (Kogelnik & Li 1966).
+type stretch struct {
+	z0, zR, k, base float64
+}
+
+func newStretch(g Gaussian, g0 float64) stretch {
+	z0, zR := real(g.Q), imag(g.Q)
+	return stretch{z0: z0, zR: zR, k: math.Sqrt(g.lambda() / (math.Pi * zR)), base: g0 - math.Atan(z0/zR)}
+}
+
+// at returns the radius, wavefront curvature and Gouy phase at distance d
+// into the stretch.
+func (s stretch) at(d float64) (units.Length, float64, units.Angle) {
+	z := s.z0 + d
+	r2 := float64(z*z) + float64(s.zR*s.zR)
+	return units.Length(s.k * math.Sqrt(r2)), z / r2, units.Angle(s.base + math.Atan(z/s.zR))
 }
 
 // gouyStep is the Gouy phase of a free-space step d from beam g:

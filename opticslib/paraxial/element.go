@@ -141,6 +141,10 @@ func mustPlane(p Plane) {
 type Element struct {
 	// Kind is the element type.
 	Kind Kind
+	// lim holds Aperture.Limits in each plane, computed when the system is
+	// assembled, for the ray traces (next to Kind and Z, which the traces
+	// read too).
+	lim [2]limit
 	// Label is an optional user name, set by [Builder.Label].
 	Label string
 	// Z is the axial position of the element's entrance, in metres from
@@ -185,10 +189,6 @@ type Element struct {
 	// differ for cylindrical lenses, tilted mirrors, tilted-plate surfaces
 	// and user matrices given with different planes.
 	X, Y Matrix
-
-	// lim holds Aperture.Limits in each plane, computed when the system is
-	// assembled, for the ray traces.
-	lim [2]limit
 }
 
 // limit is the interval of transverse positions an opening passes in one
