@@ -229,14 +229,17 @@ func FromProfile(s ProfileSpec) (Gaussian, error) {
 	return validated(Gaussian{Q: 1 / inv, Wavelength: s.Wavelength, Index: n, M2: s.M2}, given(s.Radius, s.Diameter), what)
 }
 
-// validated returns g if it is a valid beam inside the paraxial range; w
-// is the radius or diameter the user gave, named what. A beam beyond
-// [MaxDivergence] is returned with the error, as the beam it is.
+// validated returns g if it is a valid beam inside the paraxial range, and
+// the zero Gaussian with the error otherwise; w is the radius or diameter
+// the user gave, named what.
 func validated(g Gaussian, w units.Length, what string) (Gaussian, error) {
 	if err := g.Validate(); err != nil {
 		return Gaussian{}, err
 	}
-	return g, checkParaxial(g, w, what)
+	if err := checkParaxial(g, w, what); err != nil {
+		return Gaussian{}, err
+	}
+	return g, nil
 }
 
 // radiusOrDiameter returns the radius from exactly one of r and d.
@@ -290,8 +293,9 @@ func mediumAndM2(lambda0 units.Length, n, m2 float64) (float64, float64, error) 
 //
 // and its divergence m2·λ0/(n π W0) (Siegman 1990 [from memory]). At a
 // plane away from the waist the radius therefore differs from g's. It
-// returns a [*ParamError] if m2 < 1 or m2 is not finite, or if g is not a
-// valid beam.
+// returns a [*ParamError] if m2 < 1 or m2 is not finite, if g is not a
+// valid beam, and one wrapping [ErrNotParaxial] if the divergence exceeds
+// [MaxDivergence].
 func (g Gaussian) WithM2(m2 float64) (Gaussian, error) {
 	if err := g.Validate(); err != nil {
 		return Gaussian{}, err
@@ -299,10 +303,9 @@ func (g Gaussian) WithM2(m2 float64) (Gaussian, error) {
 	if !finite(m2) || !(m2 >= 1) {
 		return Gaussian{}, &ParamError{Param: "M²", Value: m2, Reason: "must be at least 1 and finite"}
 	}
-	w0 := float64(g.WaistRadius())
+	w0 := g.WaistRadius()
 	zR := math.Pi * float64(w0*w0) * g.Index / (m2 * float64(g.Wavelength))
-	h := Gaussian{Q: complex(real(g.Q), zR), Wavelength: g.Wavelength, Index: g.Index, M2: m2}
-	return h, h.Validate()
+	return validated(Gaussian{Q: complex(real(g.Q), zR), Wavelength: g.Wavelength, Index: g.Index, M2: m2}, w0, "waist radius w0")
 }
 
 // BeamQuality returns the propagation ratio M² of g: g.M2, or 1 when M2 is
@@ -319,10 +322,15 @@ func (g Gaussian) BeamQuality() float64 {
 // It is for q values computed elsewhere; beams from data sheets and
 // measurements are entered with [FromWaist] and [FromProfile]. It returns a
 // [*ParamError] unless q is finite with Im q > 0 and the wavelength and
-// index are positive and finite.
+// index are positive and finite, and one wrapping [ErrNotParaxial] beyond
+// [MaxDivergence]. Every constructor returns the zero Gaussian with an
+// error.
 func FromQ(q complex128, wavelength units.Length, index float64) (Gaussian, error) {
 	g := Gaussian{Q: q, Wavelength: wavelength, Index: index}
-	return g, g.Validate()
+	if err := g.Validate(); err != nil {
+		return Gaussian{}, err
+	}
+	return validated(g, g.WaistRadius(), "waist radius w0 (from q)")
 }
 
 // Validate returns nil if g is a physical beam: finite Q with Im Q > 0,
@@ -380,8 +388,8 @@ func (g Gaussian) WavefrontCurvature() float64 {
 	return z / (float64(z*z) + float64(zR*zR))
 }
 
-// RayleighRange returns zR = Im q = π w0² n/λ0 in metres: the distance from
-// the waist at which the radius has grown to √2·w0.
+// RayleighRange returns zR = Im q = π w0² n/(M² λ0) in metres: the
+// distance from the waist at which the radius has grown to √2·w0.
 func (g Gaussian) RayleighRange() units.Length { return units.Length(imag(g.Q)) }
 
 // WaistRadius returns the waist radius w0 in metres:

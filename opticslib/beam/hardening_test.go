@@ -149,3 +149,54 @@ func TestLimits(t *testing.T) {
 		}
 	}
 }
+
+// A Brewster window with a 3 mm clear radius and a 1.5 mm beam: the
+// footprint on the surface is 1.5 mm/cos θ, so T is that of a circle of
+// 3 mm for an ellipse of semi-axes (1.5/cos θ, 1.5) mm (the SciPy check of
+// Transmission covers that formula), the same on the entrance and the exit
+// surface (the footprint is the same seen from either side).
+func TestClippingTiltedPlate(t *testing.T) {
+	th := units.Angle(math.Atan(1.5))
+	sys := mustBuild(t, paraxial.NewBuilder().Space(10*mm).Plate(5*mm, 1.5, th).Aperture(paraxial.ClearRadius(3*mm)).Space(10*mm))
+	g, _ := FromWaist(WaistSpec{WaistRadius: 1.5 * mm, Wavelength: 633 * nm})
+	clips, err := Clipping(sys, g, 0)
+	if err != nil || len(clips) != 2 {
+		t.Fatalf("Clipping = %+v, %v; want two surfaces", clips, err)
+	}
+	want := Transmission(paraxial.ClearRadius(3*mm), th, g.Radius(), g.Radius())
+	for _, c := range clips {
+		// The beam barely grows over 10 mm (zR = 11 m): rel 1e-6.
+		if !scalar.EqualWithinAbsOrRel(c.Transmission, want, 0, 1e-6) || !(want > 0.96 && want < 0.97) {
+			t.Errorf("%s: T = %.6f, want %.6f (≈ 0.967)", c.Name, c.Transmission, want)
+		}
+	}
+}
+
+// At extreme ellipticity a centred circle of radius a passes the 1-D
+// fraction erf(√2 a/wx) of a beam that is a line in y (wy → 0; the
+// correction is of order (wy/a)²): a = wx = 1 mm, wy = 1 nm gives
+// erf(√2) = 0.9544997 (analytic limit).
+func TestTransmissionExtremeEllipse(t *testing.T) {
+	got := CircularTransmission(1*mm, 1*mm, 1*nm)
+	if want := math.Erf(math.Sqrt2); !scalar.EqualWithinAbsOrRel(got, want, 1e-9, 0) {
+		t.Errorf("CircularTransmission(1 mm, 1 mm, 1 nm) = %.10f, want %.10f", got, want)
+	}
+	if v := Transmission(paraxial.ClearRadius(-1), 0, 1*mm, 1*mm); !math.IsNaN(v) {
+		t.Errorf("Transmission of an invalid opening = %g, want NaN", v)
+	}
+}
+
+// WithM2 and FromQ apply the paraxial-range check too, and every
+// constructor returns the zero Gaussian with its error.
+func TestParaxialRangeEverywhere(t *testing.T) {
+	g, _ := FromWaist(WaistSpec{WaistRadius: 10 * um, Wavelength: 633 * nm})
+	if h, err := g.WithM2(1e5); !errors.Is(err, ErrNotParaxial) || h != (Gaussian{}) {
+		t.Errorf("WithM2(1e5) = %+v, %v; want the zero Gaussian and ErrNotParaxial", h, err)
+	}
+	if h, err := FromQ(complex(0, 1e-9), 633*nm, 1); !errors.Is(err, ErrNotParaxial) || h != (Gaussian{}) {
+		t.Errorf("FromQ(i·1 nm) = %+v, %v; want the zero Gaussian and ErrNotParaxial", h, err)
+	}
+	if h, err := FromWaist(WaistSpec{WaistRadius: 488 * nm, Wavelength: 0.42 * mm}); err == nil || h != (Gaussian{}) {
+		t.Errorf("FromWaist(swapped) = %+v, %v; want the zero Gaussian and an error", h, err)
+	}
+}

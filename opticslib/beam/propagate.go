@@ -276,7 +276,8 @@ type Extent struct {
 // They are exact, not sampled: within a homogeneous gap w(z) =
 // W0√(1 + ((z − z0)/zR)²) is convex (Kogelnik & Li 1966), so its maximum
 // lies at an end of the gap and its minimum at an end or at the waist.
-// Zero-thickness surfaces leave w continuous. Ties keep the first
+// Zero-thickness surfaces leave w continuous, except a tilted interface,
+// which rescales the tangential radius; both sides of it are compared. Ties keep the first
 // position. It returns an error if in is invalid or its index differs
 // from sys.IndexIn().
 func Extremes(sys paraxial.System, in Input) (Extent, error) {

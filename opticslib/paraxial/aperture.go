@@ -12,6 +12,11 @@ import (
 // aperture that limits the axial pencil.
 var ErrNoStop = errors.New("paraxial: no clear aperture limits the axial pencil; set one with Builder.Aperture")
 
+// ErrAxisOutside is returned (wrapped in an [*ElementError] naming the
+// part) by [System.Stops] when an opening is offset so far that the optical
+// axis lies outside it: no paraxial pencil passes.
+var ErrAxisOutside = errors.New("the optical axis lies outside this clear aperture (its offset exceeds its size)")
+
 // ErrStopImaged is returned by [System.Stops] when the chief ray is
 // undefined: the object (finite) is imaged onto the stop, or (object at
 // infinity) the stop is at a focal plane of the optics before it.
@@ -70,7 +75,7 @@ type Pupil struct {
 // grazes the edge of the aperture stop. The chief ray leaves the edge of
 // the field and crosses the axis at the centre of the stop. A general ray
 // from field f through relative pupil coordinate ρ ∈ [−1, 1] is, by
-// linearity, chief(f) + ρ·marginal (see [Apertures.Ray]).
+// linearity, chief(f) + ρ·marginal (see [Stops.Ray]).
 //
 // The aperture stop is the element whose clear aperture, divided by the
 // marginal ray height there, is smallest (W. J. Smith, Modern Optical
@@ -222,7 +227,8 @@ type stopCandidate struct {
 // plane p, with the ray height y there and the bound yb, the same height
 // traced with the entrywise magnitudes of the matrices (the scale for
 // nearZero). A space's aperture (a tube) is visited at both ends: ray
-// heights are linear along a gap, so the ends bound them.
+// heights are linear along a gap, so the ends bound them. A surface is
+// visited with the height of the ray arriving at it.
 func (s System) apertureHeights(r Ray, z0 units.Length, p Plane, f func(c stopCandidate, y, yb float64)) {
 	rb := Ray{Y: units.Length(math.Abs(float64(r.Y))), Theta: units.Angle(math.Abs(float64(r.Theta)))}
 	apply := func(m Matrix) { r, rb = m.Apply(r), m.abs().Apply(rb) }
@@ -242,10 +248,14 @@ func (s System) apertureHeights(r Ray, z0 units.Length, p Plane, f func(c stopCa
 			}
 			return true
 		}
-		apply(pc.e.matrix(p))
+		// A surface's opening is checked against the arriving ray, in the
+		// frame in which its angle of incidence (Tilt) is given: a tilted
+		// interface rescales heights (A = cos θ′/cos θ), a thin element
+		// does not.
 		if limited {
-			f(stopCandidate{elem: pc.i, z: pc.e.Z, a: units.Length(h), after: true}, float64(r.Y), float64(rb.Y))
+			f(stopCandidate{elem: pc.i, z: pc.e.Z, a: units.Length(h)}, float64(r.Y), float64(rb.Y))
 		}
+		apply(pc.e.matrix(p))
 		return true
 	})
 }
@@ -275,7 +285,11 @@ func (s System) Stops(obj Object, p Plane) (Stops, error) {
 	}
 	best := math.Inf(1)
 	var stop stopCandidate
+	axisBlocked := -1
 	s.apertureHeights(trial, z0, p, func(c stopCandidate, y, yb float64) {
+		if c.a <= 0 && axisBlocked < 0 {
+			axisBlocked = c.elem
+		}
 		if nearZero(y, yb) {
 			return // an aperture in an image of the object plane limits no pencil
 		}
@@ -283,6 +297,11 @@ func (s System) Stops(obj Object, p Plane) (Stops, error) {
 			best, stop = r, c
 		}
 	})
+	if axisBlocked >= 0 {
+		err := elementError(axisBlocked, s.elems[axisBlocked])
+		err.Param, err.Value, err.Reason, err.Err = "clear radius", s.elems[axisBlocked].Aperture.Radius, "Stops", ErrAxisOutside
+		return Stops{}, err
+	}
 	if math.IsInf(best, 1) {
 		return Stops{}, ErrNoStop
 	}
@@ -385,7 +404,7 @@ func (s System) Stops(obj Object, p Plane) (Stops, error) {
 		}
 	}
 	for _, v := range []float64{float64(a.Entrance.Z), float64(a.Entrance.Radius), float64(a.Exit.Z), float64(a.Exit.Radius),
-		float64(a.chief.Y), float64(a.chief.Theta), float64(a.Marginal.Y), float64(a.Marginal.Theta), a.ImageNA} {
+		float64(a.chief.Y), float64(a.chief.Theta), float64(a.Marginal.Y), float64(a.Marginal.Theta), a.ImageNA, a.FNumber, a.WorkingFNumber} {
 		if !finite(v) {
 			return Stops{}, ErrOverflow
 		}
@@ -404,9 +423,10 @@ type Step struct {
 	Z units.Length
 	// Ray is the ray at Z, after the element.
 	Ray Ray
-	// Blocked reports that the ray's height exceeds the element's clear
-	// aperture (at either end of a space), by more than a relative 1e-9
-	// so that marginal rays constructed to graze the stop pass.
+	// Blocked reports that the ray lies outside the element's clear
+	// aperture (at either end of a space, or arriving at a surface), by
+	// more than a relative 1e-9 of its size so that marginal rays
+	// constructed to graze the stop pass.
 	Blocked bool
 }
 
@@ -465,8 +485,11 @@ func (s System) Trace(r Ray, from, to units.Length, p Plane, dst []Step) ([]Step
 			dst = append(dst, Step{Element: i, Z: b, Ray: r, Blocked: bl || blocked(r.Y, e, p)})
 			continue
 		}
+		// The opening is checked against the arriving ray (see
+		// apertureHeights).
+		bl := blocked(r.Y, e, p)
 		r = e.matrix(p).Apply(r)
-		dst = append(dst, Step{Element: i, Z: e.Z, Ray: r, Blocked: blocked(r.Y, e, p)})
+		dst = append(dst, Step{Element: i, Z: e.Z, Ray: r, Blocked: bl})
 	}
 	if to > s.length {
 		r = Space(to - max(from, s.length)).Apply(r)
@@ -478,10 +501,13 @@ func (s System) Trace(r Ray, from, to units.Length, p Plane, dst []Step) ([]Step
 	return dst, nil
 }
 
-// MaxFanRays is the largest ray count [System.Fan] accepts: a fan is drawn
-// or summarised, and 10⁴ rays of a 100-element system are already 40 MB of
-// steps.
-const MaxFanRays = 10000
+// MaxFanRays is the largest ray count [System.Fan] accepts, and
+// MaxFanSteps the largest number of steps (rays × (elements + 2)) of one
+// fan: a fan is drawn or summarised, and 10⁶ steps are 40 MB.
+const (
+	MaxFanRays  = 10000
+	MaxFanSteps = 1000000
+)
 
 // Fan is a set of rays from one field point filling the entrance pupil,
 // traced through a system.
@@ -495,7 +521,8 @@ type Fan struct {
 	Rays [][]Step
 }
 
-// Fan traces n rays (1 ≤ n ≤ [MaxFanRays]) from field point f through the
+// Fan traces n rays (1 ≤ n ≤ [MaxFanRays], at most [MaxFanSteps] steps
+// in all) from field point f through the
 // entrance pupil of a (computed by [System.Stops] for s), at equally
 // spaced pupil coordinates ρ from −1 to 1 (n = 1 gives the chief ray
 // alone), from a.Start to position to. Blocked steps are flagged as in
@@ -509,6 +536,10 @@ func (s System) Fan(a Stops, f Field, n int, to units.Length) (Fan, error) {
 	}
 	if err := s.Validate(); err != nil {
 		return Fan{}, err
+	}
+	if steps := n * (len(s.elems) + 2); steps > MaxFanSteps {
+		return Fan{}, &ElementError{Method: "Fan", Index: -1, Param: "ray count n", Value: n,
+			Reason: "× " + strconv.Itoa(len(s.elems)+2) + " steps per ray exceeds " + strconv.Itoa(MaxFanSteps) + " steps; trace fewer rays"}
 	}
 	fan := Fan{Field: f, Pupil: make([]float64, n), Rays: make([][]Step, n)}
 	for i := range n {

@@ -3,6 +3,7 @@ package paraxial
 import (
 	"math"
 	"strconv"
+	"strings"
 
 	"github.com/beamnote/beamnote/opticslib/internal/errtext"
 	"github.com/beamnote/beamnote/opticslib/units"
@@ -36,9 +37,10 @@ type Builder struct {
 	// call, comp the index in comps of its component or -1.
 	start, comp int
 	// calls counts the calls that add elements; method is the name of the
-	// current one.
-	calls  int
-	method string
+	// current one; appended is set when it was Append.
+	calls    int
+	method   string
+	appended bool
 }
 
 // NewBuilder returns an empty builder whose input medium has index 1
@@ -125,7 +127,7 @@ func (b *Builder) Medium(n float64) *Builder {
 
 // begin marks the start of a builder call that adds elements.
 func (b *Builder) begin() {
-	b.start, b.comp = len(b.elems), -1
+	b.start, b.comp, b.appended = len(b.elems), -1, false
 }
 
 func (b *Builder) add(e Element) {
@@ -231,8 +233,7 @@ func surface(r units.Length, n1, n2 float64) Element {
 // three is [ThickLens](r1, r2, t, n, n0).
 //
 // A plano-convex lens with its curved side towards the light is
-// ThickLens(R, paraxial.Flat, t, n). Errors name kind "thick lens" and the
-// index of the front surface.
+// ThickLens(R, paraxial.Flat, t, n). Errors name the call, as any other.
 func (b *Builder) ThickLens(r1, r2, t units.Length, n float64) *Builder {
 	if b.err != nil {
 		return b
@@ -467,9 +468,13 @@ func (b *Builder) Matrix(x, y Matrix) *Builder {
 // Append appends every element of sub, a system built earlier, so that a
 // sub-assembly (a telescope, a relay) can be used several times. sub's
 // input index must equal the current index (relative 1e-12); the current
-// index becomes sub's output index. Labels, apertures, components and the
-// sub-system's own call numbers and methods are kept; the append counts as
-// one call. An empty sub adds nothing.
+// index becomes sub's output index. Apertures, components and labels are
+// kept; the appended elements count as this one call, and messages name
+// them by it and their own method, for example `Append/ThinLens "L1"
+// (call 3)`. Label after Append names the sub-assembly: it prefixes the
+// labels inside ("tele/L1") and labels the unlabelled elements ("tele"),
+// so that [System.Part] finds the whole assembly by "tele" and one of its
+// parts by "tele/L1". An empty sub adds nothing.
 func (b *Builder) Append(sub System) *Builder {
 	if b.err != nil {
 		return b
@@ -484,23 +489,27 @@ func (b *Builder) Append(sub System) *Builder {
 		return b
 	}
 	b.begin()
+	b.appended = true
 	for _, c := range sub.comps {
 		c.First += b.start
 		c.Last += b.start
 		b.comps = append(b.comps, c)
 	}
-	b.elems = append(b.elems, sub.elems...)
+	for _, e := range sub.elems {
+		e.Call, e.Method = b.calls, "Append/"+e.Method
+		b.elems = append(b.elems, e)
+	}
 	b.n = sub.nOut
 	return b
 }
 
 // Label names what the most recent call added: the element, the three
-// elements and the component of a thick lens or plate, or every element of
-// an appended system. Labels are free text; the edits and lookups by label
-// ([System.Part], [System.Move], …) use the first part with the label, so
-// keep them unique. Calling Label before any element is an error wrapping
-// [ErrNoElement]. If the most recent call failed, its error takes the
-// label, so that the message names the part.
+// elements and the component of a thick lens or plate, or an appended
+// system (see [Builder.Append]). Labels are free text without "/"; the
+// edits and lookups by label ([System.Part], [System.Move], …) refuse a
+// label that names two separate parts. Calling Label before any element is
+// an error wrapping [ErrNoElement]. If the most recent call failed, its
+// error takes the label, so that the message names the part.
 func (b *Builder) Label(name string) *Builder {
 	if b.err != nil {
 		if e, ok := b.err.(*ElementError); ok && e.Call == b.calls && e.Call > 0 && e.Label == "" {
@@ -512,11 +521,32 @@ func (b *Builder) Label(name string) *Builder {
 		b.err = &ElementError{Method: "Label", Index: 0, Param: "label", Value: errtext.Quote(name), Err: ErrNoElement}
 		return b
 	}
-	for i := b.start; i < len(b.elems); i++ {
-		b.elems[i].Label = name
+	if strings.Contains(name, "/") {
+		b.err = &ElementError{Method: "Label", Call: b.calls, Index: b.start, Param: "label", Value: errtext.Quote(name), Reason: `must not contain "/" (it separates an appended assembly from its parts)`}
+		return b
 	}
-	if b.comp >= 0 {
+	prefix := func(l string) string { return l }
+	if b.appended {
+		prefix = func(l string) string {
+			if l == "" {
+				return name
+			}
+			return name + "/" + l
+		}
+		for i := range b.comps {
+			if b.comps[i].First >= b.start {
+				b.comps[i].Label = prefix(b.comps[i].Label)
+			}
+		}
+	} else if b.comp >= 0 {
 		b.comps[b.comp].Label = name
+	}
+	for i := b.start; i < len(b.elems); i++ {
+		if b.appended {
+			b.elems[i].Label = prefix(b.elems[i].Label)
+		} else {
+			b.elems[i].Label = name
+		}
 	}
 	return b
 }
@@ -529,8 +559,9 @@ func (b *Builder) Label(name string) *Builder {
 //	Aperture(paraxial.ClearDiameter(25.4 * units.Millimeter))
 //	Aperture(paraxial.OneInchOptic())
 //
-// On a thick lens the clear radius must not exceed the radius of either
-// curved side and must leave a positive edge thickness
+// The opening (its radius plus its offset) must not reach beyond the
+// radius of any spherical surface it is set on, and on a thick lens it
+// must leave a positive edge thickness
 //
 //	t_edge = t − s(R1, a) + s(R2, a),   s(R, a) = R − sign(R)·√(R² − a²)
 //
@@ -557,18 +588,22 @@ func (b *Builder) Aperture(o Opening) *Builder {
 	if param, v, reason := o.validate(); param != "" {
 		return bad(param, v, reason)
 	}
-	if b.comp >= 0 && b.comps[b.comp].Kind == KindThickLens && o.Limited() {
-		front, back := b.elems[b.start], b.elems[b.start+2]
+	if o.Limited() {
 		a := float64(o.Radius) + math.Hypot(float64(o.OffsetX), float64(o.OffsetY))
-		for _, e := range []Element{front, back} {
-			if e.Kind == KindSphericalInterface && a > math.Abs(float64(e.Radius)) {
-				return bad("clear radius", o.Radius, "exceeds the radius of curvature |R| = "+abs(e.Radius).String()+" of a side of the lens")
+		for i := b.start; i <= last; i++ {
+			if e := b.elems[i]; e.Kind == KindSphericalInterface && a > math.Abs(float64(e.Radius)) {
+				return bad("clear radius", o.Radius, "reaches beyond the radius of curvature |R| = "+abs(e.Radius).String()+" of a spherical surface (the opening plus its offset must stay within |R|)")
 			}
 		}
-		t := float64(b.elems[b.start+1].Length)
-		edge := t - sag(front, a) + sag(back, a)
-		if edge <= 0 {
-			return bad("clear radius", o.Radius, "leaves an edge thickness of "+units.Length(edge).String()+" (centre "+units.Length(t).String()+"): no such lens")
+		for _, c := range b.comps {
+			if c.Kind != KindThickLens || c.First < b.start {
+				continue
+			}
+			front, back := b.elems[c.First], b.elems[c.Last]
+			t := float64(b.elems[c.First+1].Length)
+			if edge := t - sag(front, a) + sag(back, a); edge <= 0 {
+				return bad("clear radius", o.Radius, "leaves an edge thickness of "+units.Length(edge).String()+" (centre "+units.Length(t).String()+"): no such lens")
+			}
 		}
 	}
 	single := b.start == last
@@ -600,7 +635,7 @@ func (b *Builder) Err() error { return b.err }
 // the element at which the running product overflowed and wrapping
 // [ErrOverflow]. An empty
 // builder yields an empty system of length 0 whose matrix is the identity;
-// the analyses ([System.Cardinal], [System.Image], [System.Apertures])
+// the analyses ([System.Cardinal], [System.Image], [System.Stops])
 // reject it with [ErrEmpty].
 func (b *Builder) Build() (System, error) {
 	if b.err != nil {

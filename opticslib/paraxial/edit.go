@@ -89,10 +89,14 @@ type Part struct {
 	Z, End units.Length
 }
 
-// Part returns the first run of consecutive elements labelled label. It
-// returns an [*ElementError] wrapping [ErrNoLabel], which lists the labels
-// there are, if no element has it, and [ErrNotBuilt] for the zero System.
-// Positions relative to a part need no index arithmetic:
+// Part returns the run of consecutive elements labelled label: the
+// elements whose label is label, or, for an appended assembly, starts
+// with label + "/" (see [Builder.Append]). It returns an [*ElementError]
+// wrapping [ErrNoLabel], which lists the labels there are, if no element
+// has it, one wrapping [ErrAmbiguousLabel] if it names two separate runs
+// (the same sub-assembly appended twice under one name, say), and
+// [ErrNotBuilt] for the zero System. Positions relative to a part need no
+// index arithmetic:
 //
 //	l2, err := sys.Part("L2")
 //	g, err := beam.At(sys, in, l2.End+50*units.Millimeter) // 50 mm after L2
@@ -100,16 +104,27 @@ func (s System) Part(label string) (Part, error) {
 	if !s.built {
 		return Part{}, ErrNotBuilt
 	}
-	for k, e := range s.elems {
-		if e.Label != label {
+	match := func(l string) bool { return l == label || strings.HasPrefix(l, label+"/") }
+	var found []Part
+	for k := 0; k < len(s.elems); k++ {
+		if !match(s.elems[k].Label) {
 			continue
 		}
 		j := k
-		for j+1 < len(s.elems) && s.elems[j+1].Label == label {
+		for j+1 < len(s.elems) && match(s.elems[j+1].Label) {
 			j++
 		}
 		last := s.elems[j]
-		return Part{Label: label, First: k, Last: j, Z: e.Z, End: last.Z + last.Length}, nil
+		found = append(found, Part{Label: label, First: k, Last: j, Z: s.elems[k].Z, End: last.Z + last.Length})
+		k = j
+	}
+	switch {
+	case len(found) == 1:
+		return found[0], nil
+	case len(found) > 1:
+		e := s.elems[found[1].First]
+		return Part{}, &ElementError{Method: "Part", Index: found[1].First, Param: "label", Value: errtext.Quote(label),
+			Reason: strconv.Itoa(len(found)) + " separate parts carry it (the second is " + e.Name() + "); label each part, or each appended assembly, uniquely", Err: ErrAmbiguousLabel}
 	}
 	var have []string
 	for _, e := range s.elems {

@@ -52,9 +52,9 @@ const (
 	// KindPlate names a plane-parallel plate component; see
 	// [Builder.Plate].
 	KindPlate
-	// KindDiaphragm is an opaque screen with a circular opening (an iris
-	// or a field diaphragm) of zero length; its matrices are the identity
-	// and its Aperture is the opening radius. See [Builder.Diaphragm].
+	// KindDiaphragm is an opaque screen with an opening (an iris, a field
+	// diaphragm, a pinhole or a slit) of zero length; its matrices are the
+	// identity and its Aperture is the opening. See [Builder.Diaphragm].
 	KindDiaphragm
 )
 

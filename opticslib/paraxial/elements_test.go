@@ -135,7 +135,12 @@ func TestEdits(t *testing.T) {
 		t.Errorf("telescope twice: Cardinal = %+v, %v; want afocal with A = 4", c, err)
 	}
 	before := s.Matrix(Tangential)
-	sp := mustBuild(t, NewBuilder().Space(20*mm).Append(tele).Space(30*mm).Label("gap").Append(tele).Space(40*mm).Label("tail"))
+	// The same telescope appended twice: its labels are ambiguous until
+	// the copies are named.
+	if _, err := s.Part("T1"); !errors.Is(err, ErrAmbiguousLabel) || !strings.Contains(err.Error(), `the second is Append/ThinLens "T1" (call 4)`) {
+		t.Errorf("Part(T1) with two copies: error = %v, want ErrAmbiguousLabel naming the second", err)
+	}
+	sp := mustBuild(t, NewBuilder().Space(20*mm).Append(tele).Label("A").Space(30*mm).Label("gap").Append(tele).Label("B").Space(40*mm).Label("tail"))
 	w, err := sp.WithSpace("gap", 80*mm)
 	if err != nil {
 		t.Fatalf("WithSpace error: %v", err)
@@ -146,37 +151,41 @@ func TestEdits(t *testing.T) {
 	if got := w.Element(5).Z; !scalar.EqualWithinAbsOrRel(float64(got), 0.25, 0, 1e-15) {
 		t.Errorf("after WithSpace, element 5 at %v, want 250 mm", got)
 	}
-	if _, err := sp.WithSpace("T1", 1); err == nil || !strings.Contains(err.Error(), `ThinLens "T1" (call 1): WithSpace: the part is a thin lens, not a single space`) {
+	if _, err := sp.WithSpace("A/T1", 1); err == nil || !strings.Contains(err.Error(), `Append/ThinLens "A/T1" (call 2): WithSpace: the part is a thin lens, not a single space`) {
 		t.Errorf("WithSpace(thin lens) error = %v", err)
 	}
 	if _, err := sp.WithSpace("gap", -1); err == nil || !strings.Contains(err.Error(), `Space "gap" (call 3): length d = -1 m`) {
 		t.Errorf("WithSpace(-1) error = %v", err)
 	}
-	if _, err := sp.WithSpace("L9", 1); !errors.Is(err, ErrNoLabel) || !strings.Contains(err.Error(), `labels are "T1", "T2", "gap", "tail"`) {
+	if _, err := sp.WithSpace("L9", 1); !errors.Is(err, ErrNoLabel) || !strings.Contains(err.Error(), `labels are "A/T1", "A", "A/T2", "gap", "B/T1", "B", "B/T2", "tail"`) {
 		t.Errorf("WithSpace(unknown label) error = %v, want ErrNoLabel listing the labels", err)
 	}
-	// Swap the first T1 for a thick lens.
-	pt, err := s.Part("T1")
-	if err != nil || pt.First != 1 || pt.Last != 1 || pt.Z != 20*mm || pt.End != 20*mm {
-		t.Fatalf("Part(T1) = %+v, %v; want elements 1–1 at 20 mm", pt, err)
+	// The whole assembly by its name, a part of it by name/part.
+	if pt, err := sp.Part("B"); err != nil || pt.First != 5 || pt.Last != 7 {
+		t.Errorf("Part(B) = %+v, %v; want elements 5–7", pt, err)
 	}
+	pt, err := sp.Part("A/T1")
+	if err != nil || pt.First != 1 || pt.Last != 1 || pt.Z != 20*mm || pt.End != 20*mm {
+		t.Fatalf("Part(A/T1) = %+v, %v; want element 1 at 20 mm", pt, err)
+	}
+	// Swap the first T1 for a thick lens.
 	thick := mustBuild(t, NewBuilder().ThickLens(51*mm, Flat, 4*mm, 1.5168).Label("T1 thick"))
-	r, err := s.Replace("T1", thick)
+	r, err := sp.Replace("A/T1", thick)
 	if err != nil {
 		t.Fatalf("Replace error: %v", err)
 	}
-	if r.Len() != 11 || len(r.Components()) != 1 || r.Components()[0].First != 1 || s.Len() != 9 {
-		t.Errorf("Replace: Len %d, components %+v; original Len %d", r.Len(), r.Components(), s.Len())
+	if r.Len() != 11 || len(r.Components()) != 1 || r.Components()[0].First != 1 || sp.Len() != 9 {
+		t.Errorf("Replace: Len %d, components %+v; original Len %d", r.Len(), r.Components(), sp.Len())
 	}
 	if pt, err := r.Part("T1 thick"); err != nil || pt.First != 1 || pt.Last != 3 || !scalar.EqualWithinAbsOrRel(float64(pt.End-pt.Z), 4e-3, 0, 1e-12) {
 		t.Errorf("Part(thick) = %+v, %v; want elements 1–3, 4 mm long", pt, err)
 	}
 	// Putting glass where air is expected is refused.
 	glass := mustBuild(t, NewBuilder().Interface(0.1, 1.5))
-	if _, err := s.Replace("T1", glass); !errors.Is(err, ErrIndexChange) {
+	if _, err := sp.Replace("A/T1", glass); !errors.Is(err, ErrIndexChange) {
 		t.Errorf("Replace with index change: error = %v, want ErrIndexChange", err)
 	}
-	if _, err := s.Replace("T1", System{}); !errors.Is(err, ErrNotBuilt) {
+	if _, err := sp.Replace("A/T1", System{}); !errors.Is(err, ErrNotBuilt) {
 		t.Errorf("Replace with an unbuilt system: error = %v, want ErrNotBuilt", err)
 	}
 	// Deleting a lens keeps the rest.
@@ -184,6 +193,9 @@ func TestEdits(t *testing.T) {
 	d, err := r.Replace("T1 thick", empty)
 	if err != nil || d.Len() != 8 || len(d.Components()) != 0 {
 		t.Errorf("delete: Len %d, comps %d, err %v", d.Len(), len(d.Components()), err)
+	}
+	if _, err := NewBuilder().ThinLens(0.1).Label("a/b").Build(); err == nil || !strings.Contains(err.Error(), `must not contain "/"`) {
+		t.Errorf(`Label("a/b") error = %v, want a "/" error`, err)
 	}
 }
 

@@ -26,6 +26,10 @@ var ErrNotBuilt = errors.New("paraxial: system not built (the zero System value)
 // [Plane] value other than Tangential and Sagittal.
 var ErrPlane = errors.New("paraxial: plane must be Tangential or Sagittal")
 
+// ErrAmbiguousLabel is returned (wrapped in an [*ElementError]) by the
+// edits and lookups by label when the label names two separate parts.
+var ErrAmbiguousLabel = errors.New("the label names more than one part")
+
 // ErrNoLabel is returned (wrapped in an [*ElementError]) by the edits and
 // lookups by label when no element carries the label.
 var ErrNoLabel = errors.New("no element has this label")

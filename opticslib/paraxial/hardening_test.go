@@ -203,3 +203,77 @@ func TestWalkTiles(t *testing.T) {
 		}
 	}
 }
+
+// A plate at Brewster's angle (n = 1.5, tan θ = n) with a 3 mm clear
+// radius: the opening limits the tangential plane to 3 mm·cos θ = 1.664 mm
+// in the frame of the arriving beam (analytic geometry; Brewster's angle
+// per Born & Wolf, Principles of Optics, 7th ed., §1.5 [from memory]). The
+// exit surface, seen from inside the glass, gives the same limit, so the
+// front surface is the stop (ties go to the first).
+func TestTiltedPlateStop(t *testing.T) {
+	const mm = units.Millimeter
+	th := units.Angle(math.Atan(1.5))
+	s := mustBuild(t, NewBuilder().Space(10*mm).Plate(5*mm, 1.5, th).Label("window").Aperture(ClearRadius(3*mm)).Space(10*mm))
+	a, err := s.Stops(ObjectAtInfinity(), Tangential)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := 3e-3 * math.Cos(float64(th))
+	// Two products and a cosine: rel 1e-12.
+	if !scalar.EqualWithinAbsOrRel(float64(a.Entrance.Radius), want, 0, 1e-12) || a.Stop != 1 {
+		t.Errorf("Brewster window: stop element %d, entrance pupil radius %v; want element 1, %g m", a.Stop, a.Entrance.Radius, want)
+	}
+	for _, test := range []struct {
+		y       units.Length
+		blocked bool
+	}{{1.6 * mm, false}, {1.7 * mm, true}} {
+		steps, err := s.Trace(Ray{Y: test.y}, 0, s.Length(), Tangential, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		any := false
+		for _, st := range steps {
+			any = any || st.Blocked
+		}
+		if any != test.blocked {
+			t.Errorf("ray at %v through the Brewster window: blocked %v, want %v", test.y, any, test.blocked)
+		}
+	}
+}
+
+// An opening offset so far that the axis lies outside it passes no
+// paraxial pencil: Stops says so instead of returning an f-number of ∞.
+func TestAxisOutsideOpening(t *testing.T) {
+	const mm = units.Millimeter
+	s := mustBuild(t, NewBuilder().Space(10*mm).ThinLens(50*mm).Label("L").Aperture(ClearRadius(1*mm).Offset(2*mm, 0)).Space(50*mm))
+	if _, err := s.Stops(ObjectAtInfinity(), Tangential); !errors.Is(err, ErrAxisOutside) || !strings.Contains(err.Error(), `ThinLens "L" (call 2)`) {
+		t.Errorf("Stops with the axis outside the opening: error = %v, want ErrAxisOutside naming the lens", err)
+	}
+}
+
+func TestOpeningValidate(t *testing.T) {
+	if _, _, ok := ClearRadius(1e-3).Limits(Plane(9), 0); ok {
+		t.Errorf("Limits(Plane(9)) ok = true, want false")
+	}
+	for _, o := range []Opening{ClearRadius(-1), {Shape: Shape(7), Radius: 1}, SlitOfWidth(1, Plane(4)), ClearRadius(1).WithMinTransmission(2)} {
+		if o.Validate() == nil {
+			t.Errorf("Validate(%+v) = nil, want an error", o)
+		}
+	}
+	if (Opening{}).Validate() != nil || OneInchOptic().Validate() != nil {
+		t.Errorf("valid openings rejected")
+	}
+	// 10 rays through 10⁶ steps' worth of elements.
+	b := NewBuilder()
+	for range 200 {
+		b.Space(1e-3).ThinLens(0.1)
+	}
+	s := mustBuild(t, b.Aperture(ClearRadius(0.01)))
+	a, err := s.Stops(ObjectAtInfinity(), Tangential)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := s.Fan(a, Field{}, MaxFanRays, s.Length()); err == nil || !strings.Contains(err.Error(), "steps") {
+		t.Errorf("Fan of 10⁴ rays through 400 elements: error = %v, want a step-count error", err)
+	}
+}

@@ -101,6 +101,19 @@ func (o Opening) Limited() bool { return o.Radius > 0 }
 // Diameter returns the full width 2·Radius in metres.
 func (o Opening) Diameter() units.Length { return 2 * o.Radius }
 
+// Validate returns nil for a valid opening (the zero Opening is valid and
+// unlimited) and an [*ElementError] naming the first bad field otherwise:
+// a shape other than Circle or Slit, a negative or non-finite radius, a
+// slit plane other than Tangential or Sagittal, a non-finite offset, or a
+// threshold outside (0, 1]. The builder validates every opening it is
+// given.
+func (o Opening) Validate() error {
+	if param, v, reason := o.validate(); param != "" {
+		return &ElementError{Method: "Opening", Index: -1, Param: param, Value: v, Reason: reason}
+	}
+	return nil
+}
+
 // validate returns the name and requirement of the first bad field, or
 // "" if o is valid.
 func (o Opening) validate() (param string, v any, reason string) {
@@ -128,8 +141,11 @@ func (o Opening) validate() (param string, v any, reason string) {
 // (dx, dy) the interval along x is dx ± √(a² − dy²), empty (lo = hi) when
 // |dy| ≥ a; positions on the surface project onto the beam's frame with a
 // factor cos θ in the tangential plane.
+//
+// It returns ok = false, too, for an invalid opening or plane (see
+// [Opening.Validate]).
 func (o Opening) Limits(p Plane, tilt units.Angle) (lo, hi float64, ok bool) {
-	if !o.Limited() {
+	if !o.Limited() || !p.valid() || o.Validate() != nil {
 		return 0, 0, false
 	}
 	along, across := float64(o.OffsetX), float64(o.OffsetY)
