@@ -3,7 +3,7 @@ module github.com/beamnote/beamnote
 go 1.26.0
 
 require (
-	github.com/janpfeifer/gonb v0.11.1
+	github.com/janpfeifer/gonb v0.11.4
 	golang.org/x/mod v0.42.0
 	gonum.org/v1/gonum v0.17.0
 	gonum.org/v1/plot v0.17.0
@@ -22,6 +22,8 @@ require (
 	github.com/go-zeromq/zmq4 v0.17.0 // indirect
 	github.com/gofrs/uuid v4.4.0+incompatible // indirect
 	github.com/golang/freetype v0.0.0-20170609003504-e2365dfdc4a0 // indirect
+	github.com/gx-org/backend v0.3.0 // indirect
+	github.com/gx-org/gx v0.6.1 // indirect
 	github.com/janpfeifer/must v0.2.0 // indirect
 	github.com/mattn/go-colorable v0.1.14 // indirect
 	github.com/mattn/go-isatty v0.0.20 // indirect

@@ -2,6 +2,7 @@ package nb
 
 import (
 	"bytes"
+	"errors"
 	"os"
 	"path/filepath"
 	"strings"
@@ -99,5 +100,53 @@ func TestFileName(t *testing.T) {
 		if got := fileName(test.caption); got != test.want {
 			t.Errorf("fileName(%q) = %q, want %q", test.caption, got, test.want)
 		}
+	}
+}
+
+type fakeTable struct{}
+
+func (fakeTable) Table() table.Table {
+	return table.Table{Caption: "Cardinal points", Header: []string{"quantity", "value"}, Rows: [][]string{{"EFL (mm)", "100.000"}}}
+}
+
+type fakeFigure struct{}
+
+func (fakeFigure) SVG() ([]byte, error) { return []byte(`<svg xmlns="http://www.w3.org/2000/svg"/>`), nil }
+func (fakeFigure) String() string       { return "Caustic of the expander" }
+
+// Show renders what it is given by the interfaces it implements, and
+// stops the cell (here: records the stop) on an error, naming the line.
+func TestShowAndMust(t *testing.T) {
+	got := capture(t, func() error { Show(fakeTable{}); return nil })
+	if !strings.Contains(got, "Cardinal points") || !strings.Contains(got, "EFL (mm)  100.000") {
+		t.Errorf("Show(Tabler) printed %q", got)
+	}
+	got = capture(t, func() error { Show(fakeFigure{}); return nil })
+	if !strings.Contains(got, "[figure: Caustic of the expander (") {
+		t.Errorf("Show(SVGer) printed %q", got)
+	}
+	var stderr bytes.Buffer
+	errOut = &stderr
+	stopped := 0
+	oldStop := stop
+	stop = func() { stopped++ }
+	defer func() { errOut, stop = nil, oldStop }()
+	v := Must(42, nil)
+	if v != 42 || stopped != 0 {
+		t.Errorf("Must(42, nil) = %d, stopped %d times", v, stopped)
+	}
+	Must(0, errors.New("paraxial: ThinLens \"L1\" (call 2): focal length f = 0 m: must be nonzero and finite"))
+	if stopped != 1 || !strings.HasPrefix(stderr.String(), "error: paraxial: ThinLens \"L1\" (call 2)") ||
+		!strings.Contains(stderr.String(), `in: Must(0, errors.New("paraxial: ThinLens`) {
+		t.Errorf("Must(err): stopped %d, stderr %q", stopped, stderr.String())
+	}
+	stderr.Reset()
+	Show(fakeTable{}, errors.New("beam: bad"))
+	if stopped != 2 || !strings.Contains(stderr.String(), "error: beam: bad") {
+		t.Errorf("Show(v, err): stopped %d, stderr %q", stopped, stderr.String())
+	}
+	Check(nil)
+	if stopped != 2 {
+		t.Errorf("Check(nil) stopped the cell")
 	}
 }

@@ -12,7 +12,7 @@ import (
 // outside one. Cells are plain text and escaped. A row longer than the
 // header is an error ([table.Table.Validate]).
 //
-//	nb.Table(sys.Prescription())
+//	nb.Table(sys.Table())
 func Table(t table.Table) error {
 	if err := t.Validate(); err != nil {
 		return err

@@ -104,7 +104,13 @@ func (l Layout) WriteKernelspec(dataDir string) (string, error) {
 	spec := kernelspec{
 		// gonb's own log (klog) goes to a file instead of the server's
 		// terminal, where it buried the URL and the cell errors.
+		// --raw_error makes a compile error the cell's error output itself
+		// (evalue the compiler's output, one traceback entry per message
+		// with "Cell[N]: Line L"), which a terminal, nbconvert and an HTML
+		// export all show, instead of an HTML block beside an error that
+		// reads only `failed to run ".../go build ...": exit status 1`.
 		Argv: []string{l.launcherPath(), "--kernel", "{connection_file}",
+			"--raw_error",
 			"--logtostderr=false", "--stderrthreshold=FATAL",
 			"--log_file=" + l.KernelLog(), "--log_file_max_size=20"},
 		DisplayName:   DisplayName,

@@ -19,9 +19,12 @@ import (
 )
 
 // TestKernelSurvivesCrashes executes testdata/notebooks/reliability.ipynb with
-// the installed beamnote kernel: a cell that panics, one that calls os.Exit
-// and one that does not compile must each be reported as a problem, and the
-// last cell must still run. It needs `make kernel` first and skips otherwise.
+// the installed beamnote kernel: a cell that panics, one that calls os.Exit,
+// one that does not compile, one that prints "error: …" and returns, and one
+// that writes "error: …" to stderr and exits 1 (what nb.Must does) must each
+// be reported as a problem of that cell, with the message; a line that only
+// contains "error:" is not a problem; and the cells after them must still
+// run. It needs `make kernel` first and skips otherwise.
 func TestKernelSurvivesCrashes(t *testing.T) {
 	if testing.Short() {
 		t.Skip("runs a Jupyter kernel")
@@ -40,13 +43,24 @@ func TestKernelSurvivesCrashes(t *testing.T) {
 		t.Fatal("ExecuteNotebooks(reliability.ipynb) = nil, want the crashes reported")
 	}
 	for _, want := range []string{
-		`cell 1 (var m map[string]int): the cell program crashed ("panic:`,
-		`cell 2 (os.Exit(3)): the cell program crashed ("exit status 3"`,
+		`cell 1 (var m map[string]int): the cell program crashed ("panic: assignment to entry in nil map" on stderr, at Cell[1]: Line 3)`,
+		`cell 2 (os.Exit(3)): the cell program crashed ("exit status 3" on stderr)`,
 		`cell 3 (undefinedFunction()): does not compile: Cell[3]: Line 2: undefined: undefinedFunction`,
+		`: the cell reported an error on stdout: error: lens "L2": focal length = 0 m: must be nonzero` + "\n",
+		`: the cell reported an error on stderr: error: beam: waist radius = -1 mm: must be positive (exit status 1)`,
+		`cell 6 (fmt.Println("   Error: solver did not converge")): the cell reported an error on stdout: Error: solver did not converge`,
 	} {
 		if !strings.Contains(err.Error(), want) {
 			t.Errorf("ExecuteNotebooks error lacks %q:\n%v", want, err)
 		}
+	}
+	for _, cell := range []string{"cell 4 (", "cell 5 ("} {
+		if n := strings.Count(err.Error(), cell); n != 1 {
+			t.Errorf("ExecuteNotebooks error names %s %d times, want once:\n%v", cell, n, err)
+		}
+	}
+	if strings.Contains(err.Error(), "cell 7 (") {
+		t.Errorf("ExecuteNotebooks reports cell 7, whose lines only contain \"error:\":\n%v", err)
 	}
 	b, rerr := os.ReadFile(filepath.Join(out, "reliability.ipynb"))
 	if rerr != nil {

@@ -41,6 +41,7 @@ type Output struct {
 	Data       map[string]json.RawMessage `json:"data"`
 	EName      string                     `json:"ename"`
 	EValue     string                     `json:"evalue"`
+	Traceback  []string                   `json:"traceback"`
 }
 
 // multiline decodes nbformat's "string or list of strings".
@@ -60,19 +61,46 @@ func multiline(raw json.RawMessage) string {
 }
 
 // crashRE matches what a cell program that panicked, was killed or called
-// os.Exit with a nonzero code leaves on its standard error stream: gonb
-// reports the cell as done and nbconvert exits 0, so the outputs are the
-// only evidence. The Go runtime writes "panic: " and "fatal error: " there,
-// and gonb writes the *exec.ExitError ("exit status 3", "signal: killed") on
-// stderr too. Only stderr is searched, so a cell that prints, say,
-// "signal: 3.2 dB" with fmt.Println is not a crash; a cell that writes such
-// a line to os.Stderr itself (or runs a failing "!" shell command, which gonb
-// reports the same way) is reported, which is the safe side for a test.
-var crashRE = regexp.MustCompile(`(?m)^(panic: |fatal error: |exit status [1-9]|signal: )`)
+// os.Exit with a nonzero code leaves on its standard error stream. The Go
+// runtime writes "panic: " and "fatal error: " there, and gonb writes the
+// *exec.ExitError ("exit status 3", "signal: killed") on stderr too. gonb
+// up to v0.11.1 reported such a cell as done and nbconvert exited 0, so the
+// outputs were the only evidence; v0.11.4 adds an error output, and the
+// stream still says what happened. Only stderr is searched, so a cell that
+// prints, say, "signal: 3.2 dB" with fmt.Println is not a crash; a cell that
+// writes such a line to os.Stderr itself (or runs a failing "!" shell
+// command, which gonb reports the same way) is reported, which is the safe
+// side for a test.
+var crashRE = regexp.MustCompile(`(?m)^(panic: |fatal error: |exit status [1-9]|signal: ).*$`)
 
-// CheckExecuted returns one problem per failing cell of an executed notebook:
-// an error output, a crash on a stream, or a cell tagged [FigureTag] without
-// an image/svg+xml output. A notebook with no figure at all is a problem too.
+// exitRE matches how gonb reports a cell program that exited nonzero or was
+// killed, on stderr and in the error output.
+var exitRE = regexp.MustCompile(`(?m)^(exit status [1-9]\d*|signal: .*)$`)
+
+// errorLineRE matches a line in which a cell says it failed: "error:" in
+// any case, after optional blanks, on stdout or stderr. That is how a cell
+// in the print-and-return style reports (fmt.Println("error:", err);
+// return), and how nb.Must and nb.Check report before they exit with
+// status 1.
+var errorLineRE = regexp.MustCompile(`(?im)^[ \t]*error:.*$`)
+
+// cellLineRE matches gonb's mark of a cell line in a stack trace on stderr,
+// "[[ Cell [1] Line 3 ]]", once ANSI escapes are removed.
+var cellLineRE = regexp.MustCompile(`\[\[ (Cell (\[\d+\] )?Line \d+) \]\]`)
+
+// ansiRE matches the ANSI colour and video escapes that gonb puts in
+// tracebacks and stack traces.
+var ansiRE = regexp.MustCompile("\x1b\\[[0-9;]*m")
+
+// CheckExecuted returns the problems of an executed notebook: one per code
+// cell that failed, and one per cell tagged [FigureTag] without an
+// image/svg+xml output. A notebook with no figure at all is a problem too.
+//
+// A cell failed when it does not compile, when a line of its stdout or
+// stderr starts with "error:" (see errorLineRE), when its program crashed or
+// exited nonzero (see crashRE), or when it has any other error output. The
+// problem says which, in that order of preference, with the compiler's
+// messages by cell and line, the "error:" line, or the crash's first line.
 func CheckExecuted(nb Notebook) []string {
 	var problems []string
 	figures := 0
@@ -81,24 +109,12 @@ func CheckExecuted(nb Notebook) []string {
 			continue
 		}
 		where := fmt.Sprintf("cell %d (%s)", i, firstLine(multiline(c.Source)))
+		if p := cellFailure(c.Outputs); p != "" {
+			problems = append(problems, where+": "+p)
+		}
 		hasSVG := false
-		compileMsgs := compilerMessages(c.Outputs)
 		for _, o := range c.Outputs {
-			switch o.OutputType {
-			case "error":
-				msg := fmt.Sprintf("%s: error %s: %s", where, o.EName, o.EValue)
-				if compileMsgs != "" {
-					msg = fmt.Sprintf("%s: does not compile: %s", where, compileMsgs)
-				}
-				problems = append(problems, msg)
-			case "stream":
-				if o.Name != "stderr" {
-					continue
-				}
-				if m := crashRE.FindString(multiline(o.Text)); m != "" {
-					problems = append(problems, fmt.Sprintf("%s: the cell program crashed (%q on %s)", where, strings.TrimSpace(m), o.Name))
-				}
-			case "display_data", "execute_result":
+			if o.OutputType == "display_data" || o.OutputType == "execute_result" {
 				if _, ok := o.Data["image/svg+xml"]; ok {
 					hasSVG = true
 				}
@@ -117,8 +133,57 @@ func CheckExecuted(nb Notebook) []string {
 	return problems
 }
 
-// gonbErrRE matches one compiler message in gonb's HTML error report: the
-// cell line, then the message after the main.go location.
+// cellFailure says why a cell with these outputs failed, or returns "".
+func cellFailure(outs []Output) string {
+	// Jupyter may split a stream over several outputs: join them, so that
+	// a line is a line.
+	streams := map[string]string{}
+	var errOut *Output
+	for i, o := range outs {
+		switch o.OutputType {
+		case "stream":
+			streams[o.Name] += ansiRE.ReplaceAllString(multiline(o.Text), "")
+		case "error":
+			if errOut == nil {
+				errOut = &outs[i]
+			}
+		}
+	}
+	if errOut != nil {
+		if msgs := compilerMessages(outs); msgs != "" {
+			return "does not compile: " + msgs
+		}
+	}
+	exit := strings.TrimSpace(exitRE.FindString(streams["stderr"]))
+	if exit == "" && errOut != nil && exitRE.MatchString(errOut.EValue) {
+		exit = strings.TrimSpace(exitRE.FindString(errOut.EValue))
+	}
+	for _, name := range []string{"stderr", "stdout"} {
+		if line := strings.TrimSpace(errorLineRE.FindString(streams[name])); line != "" {
+			msg := fmt.Sprintf("the cell reported an error on %s: %s", name, line)
+			if exit != "" {
+				msg += " (" + exit + ")"
+			}
+			return msg
+		}
+	}
+	if crash := strings.TrimSpace(crashRE.FindString(streams["stderr"])); crash != "" {
+		msg := fmt.Sprintf("the cell program crashed (%q on stderr", crash)
+		if m := cellLineRE.FindStringSubmatch(streams["stderr"]); m != nil {
+			// "Cell [1] Line 3" → "Cell[1]: Line 3", as in compiler messages.
+			msg += ", at " + strings.Replace(strings.Replace(m[1], "Cell [", "Cell[", 1), "] ", "]: ", 1)
+		}
+		return msg + ")"
+	}
+	if errOut != nil {
+		return fmt.Sprintf("error %s: %s", errOut.EName, strings.TrimSpace(errOut.EValue))
+	}
+	return ""
+}
+
+// gonbErrRE matches one compiler message in gonb's HTML error report
+// (without --raw_error): the cell line, then the message after the main.go
+// location.
 var gonbErrRE = regexp.MustCompile(`gonb-cell-line-info">([^<]*)</span>\s*<span class="gonb-err-location">[^<]*</span>\s*([^\n<]*)`)
 
 var (
@@ -126,10 +191,33 @@ var (
 	goErrLineRE = regexp.MustCompile(`\.go:\d+:\d+: `)
 )
 
-// compilerMessages extracts "Cell[3]: Line 2: undefined: f" style messages
-// from gonb's HTML compile-error output, joined by "; ".
+// compilerMessages extracts "Cell[3]: Line 2: undefined: f" style messages,
+// joined by "; ", from a cell's error output as gonb --raw_error writes it
+// (one traceback entry per compiler message: "Cell[3]: Line 2", the code
+// around it, then the message), or else from gonb's HTML error report. A
+// message outside the cell (a library package failed to build) keeps the
+// compiler's own file:line form. Runtime errors give "".
 func compilerMessages(outs []Output) string {
 	var msgs []string
+	for _, o := range outs {
+		if o.OutputType != "error" {
+			continue
+		}
+		for _, entry := range o.Traceback {
+			entry = strings.TrimSpace(ansiRE.ReplaceAllString(entry, ""))
+			lines := strings.Split(entry, "\n")
+			first, last := strings.TrimSpace(lines[0]), strings.TrimSpace(lines[len(lines)-1])
+			switch {
+			case strings.HasPrefix(first, "Cell[") || strings.HasPrefix(first, "Cell Line "):
+				msgs = append(msgs, first+": "+last)
+			case len(lines) == 1 && goErrLineRE.MatchString(first):
+				msgs = append(msgs, first)
+			}
+		}
+	}
+	if len(msgs) > 0 {
+		return strings.Join(msgs, "; ")
+	}
 	for _, o := range outs {
 		raw, ok := o.Data["text/html"]
 		if !ok {

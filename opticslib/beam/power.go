@@ -248,7 +248,7 @@ const tubeSamples = 63
 //
 // It returns a [*ParamError] for a bad threshold, and the errors of [At]
 // for a bad beam or system.
-func Clipping(sys paraxial.System, in Input, minTransmission float64) ([]Clip, error) {
+func Clipping(sys paraxial.System, in Input, minTransmission float64) (Clips, error) {
 	if minTransmission == 0 {
 		minTransmission = DefaultMinTransmission
 	}
@@ -259,7 +259,7 @@ func Clipping(sys paraxial.System, in Input, minTransmission float64) ([]Clip, e
 	if err != nil {
 		return nil, err
 	}
-	var out []Clip
+	var out Clips
 	for pc := range sys.Walk(0, sys.Length()) {
 		e := sys.Element(pc.Element)
 		next := a.Transform(pc.X, pc.Y, pc.IndexOut)
@@ -305,7 +305,7 @@ func Clipping(sys paraxial.System, in Input, minTransmission float64) ([]Clip, e
 // Clipping is [Clipping] for the system and input beam that c was
 // sampled from ([Sample], [SampleRange]); it returns a [*ParamError] for a
 // caustic made otherwise.
-func (c Caustic) Clipping(minTransmission float64) ([]Clip, error) {
+func (c Caustic) Clipping(minTransmission float64) (Clips, error) {
 	if c.sys.Validate() != nil {
 		return nil, &ParamError{Param: "caustic", Reason: "need a caustic made by Sample or SampleRange"}
 	}

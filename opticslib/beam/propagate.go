@@ -153,12 +153,12 @@ type Waist struct {
 // change the waist, so consecutive spaces repeat it. It returns an error if
 // in is invalid, its index differs from sys.IndexIn(), or a result
 // overflows.
-func Waists(sys paraxial.System, in Input) ([]Waist, error) {
+func Waists(sys paraxial.System, in Input) (WaistList, error) {
 	a, err := checkInput(sys, in)
 	if err != nil {
 		return nil, err
 	}
-	out := make([]Waist, 0, sys.Len())
+	out := make(WaistList, 0, sys.Len())
 	for pc := range sys.Walk(0, sys.Length()) {
 		a = a.Transform(pc.X, pc.Y, pc.IndexOut)
 		if a.X.Validate() != nil || a.Y.Validate() != nil {

@@ -264,7 +264,7 @@ func FuzzBuilder(f *testing.F) {
 		if _, err := s.MatrixTo(s.Length()/2, Tangential); err != nil && err != ErrOverflow {
 			t.Fatalf("MatrixTo(L/2) error: %v", err)
 		}
-		_ = s.Prescription().Text()
+		_ = s.Table().Text()
 		// Label edits never panic; they succeed or say why.
 		for _, e := range []func() (System, error){
 			func() (System, error) { return s.Move("x", units.Length(y)) },

@@ -154,14 +154,14 @@ func ExampleBuilder_ConcaveMirror() {
 	// f_t = 98.481 mm, f_s = 101.543 mm
 }
 
-func ExampleSystem_Prescription() {
+func ExampleSystem_Table() {
 	const mm = units.Millimeter
 	sys, _ := paraxial.NewBuilder().
 		Space(5*mm).
 		ThickLens(25*mm, paraxial.Flat, 3*mm, 1.5).Label("PCX").Aperture(paraxial.ClearDiameter(12 * mm)).
 		Space(45 * mm).
 		Build()
-	fmt.Print(sys.Prescription().Text())
+	fmt.Print(sys.Table().Text())
 	// Output:
 	// Prescription
 	// call         element                           label  z (mm)  length (mm)  R / f (mm)  n after  tilt (°)  clear aperture (mm)

@@ -15,9 +15,15 @@ var ErrImageAtInfinity = errors.New("paraxial: image at infinity (object in the 
 // magnification that is zero or not finite.
 var ErrMagnification = errors.New("paraxial: magnification must be nonzero and finite")
 
+// Conjugates is an object–image table: the images of several object
+// planes ([System.Conjugates]).
+type Conjugates []Conjugate
+
 // Conjugate is a pair of conjugate planes, object and image, in one plane
 // of a system.
 type Conjugate struct {
+	// Plane is the plane of the system analysed.
+	Plane Plane
 	// Object and Image are the axial positions of the object and of its
 	// image, in metres from the input plane. The object is in object space
 	// (the input medium, extended through the system if virtual), the
@@ -74,6 +80,7 @@ func (s System) Image(object units.Length, p Plane) (Conjugate, error) {
 	}
 	d := -pm.B / pm.D
 	c := Conjugate{
+		Plane:                p,
 		Object:               object,
 		Image:                s.length + units.Length(d),
 		Magnification:        pm.Det() / pm.D,
@@ -122,9 +129,9 @@ func (s System) ObjectFor(m float64, p Plane) (Conjugate, error) {
 }
 
 // Conjugates returns the image of every object position in objects, in
-// order (an object–image table; see [ConjugateTable]). It stops at the
+// order (an object–image table; see [Conjugates.Table]). It stops at the
 // first error, returning the conjugates computed so far.
-func (s System) Conjugates(objects []units.Length, p Plane) ([]Conjugate, error) {
+func (s System) Conjugates(objects []units.Length, p Plane) (Conjugates, error) {
 	out := make([]Conjugate, 0, len(objects))
 	for _, z := range objects {
 		c, err := s.Image(z, p)

@@ -41,14 +41,14 @@ func planeName(p Plane) string {
 	return "x"
 }
 
-// Prescription returns the element list of s as a table, one row per
+// Table returns the element list of s (its prescription) as a table, one row per
 // element: builder call, kind, label, position z, length, radius or focal
 // length (mirrors as concave or convex with the radius printed on the
 // part), index after the element, angle of incidence and clear aperture as
 // a diameter (lengths in mm to 3 decimals, indices to 4). Surfaces of a
 // thick lens or plate are marked with the component kind. Empty cells mean
 // "not applicable" (or an unlimited aperture).
-func (s System) Prescription() table.Table {
+func (s System) Table() table.Table {
 	t := table.Table{
 		Caption: "Prescription",
 		Header:  []string{"call", "element", "label", "z (mm)", "length (mm)", "R / f (mm)", "n after", "tilt (°)", "clear aperture (mm)"},
@@ -121,10 +121,10 @@ func (c Cardinal) Table() table.Table {
 	return t
 }
 
-// ConjugateTable returns an object–image table of cs: object and image
-// positions (mm), transverse and angular magnification, and whether object
-// and image are real.
-func ConjugateTable(cs []Conjugate) table.Table {
+// Table returns the object–image table of cs: object and image positions
+// (mm), transverse and angular magnification, and whether object and image
+// are real.
+func (cs Conjugates) Table() table.Table {
 	t := table.Table{Caption: "Object–image table", Header: []string{"object z (mm)", "image z (mm)", "magnification", "angular magnification", "object", "image"}}
 	kind := func(real bool) string {
 		if real {
@@ -136,6 +136,13 @@ func ConjugateTable(cs []Conjugate) table.Table {
 		t.Rows = append(t.Rows, []string{mmCell(c.Object, 3, false), mmCell(c.Image, 3, false), numCell(c.Magnification, 4),
 			numCell(c.AngularMagnification, 4), kind(c.RealObject), kind(c.RealImage)})
 	}
+	return t
+}
+
+// Table returns the imaging solution c as a one-row object–image table.
+func (c Conjugate) Table() table.Table {
+	t := Conjugates{c}.Table()
+	t.Caption = "Imaging solution (" + c.Plane.String() + ")"
 	return t
 }
 

@@ -3,6 +3,8 @@ package table
 import (
 	"math"
 	"strconv"
+
+	"github.com/beamnote/beamnote/opticslib/units"
 )
 
 func itoa(i int) string { return strconv.Itoa(i) }
@@ -25,4 +27,62 @@ func Fixed(v float64, dec int) string {
 		return z
 	}
 	return s
+}
+
+// LengthUnit returns the display unit for a column of lengths and its
+// symbol: µm when the largest magnitude is below 1 mm, mm below 10 m,
+// metres above; non-finite values are ignored (mm for none).
+func LengthUnit(vs ...units.Length) (units.Length, string) {
+	m := 0.0
+	for _, v := range vs {
+		if a := math.Abs(float64(v)); !math.IsInf(a, 0) && !math.IsNaN(a) {
+			m = math.Max(m, a)
+		}
+	}
+	switch {
+	case m > 0 && m < 1e-3:
+		return units.Micrometer, "µm"
+	case m >= 10:
+		return units.Meter, "m"
+	}
+	return units.Millimeter, "mm"
+}
+
+// In formats l in the unit u with dec decimals ("∞" for an infinite
+// length, see [Fixed]).
+func In(l, u units.Length, dec int) string { return Fixed(float64(l/u), dec) }
+
+// Sig formats v with n significant digits (no exponent between 1e-4 and
+// 1e6), "∞" for +Inf.
+func Sig(v float64, n int) string {
+	switch {
+	case math.IsInf(v, 1):
+		return "∞"
+	case math.IsInf(v, -1):
+		return "−∞"
+	case v == 0:
+		return "0"
+	}
+	return strconv.FormatFloat(v, 'g', n, 64)
+}
+
+// Quantity formats a length with four significant digits in the unit that
+// suits it (nm, µm, mm or m), for example "420 µm" or "1.241 m"; "∞" for
+// an infinite one.
+func Quantity(l units.Length) string {
+	v := float64(l)
+	a := math.Abs(v)
+	switch {
+	case math.IsInf(v, 0):
+		return Sig(v, 4)
+	case a == 0:
+		return "0 m"
+	case a < 1e-6:
+		return Sig(v/1e-9, 4) + " nm"
+	case a < 1e-3:
+		return Sig(v/1e-6, 4) + " µm"
+	case a < 1:
+		return Sig(v/1e-3, 4) + " mm"
+	}
+	return Sig(v, 4) + " m"
 }

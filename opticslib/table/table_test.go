@@ -3,6 +3,8 @@ package table
 import (
 	"math"
 	"testing"
+
+	"github.com/beamnote/beamnote/opticslib/units"
 )
 
 // What is checked: alignment on runes (µ, ∞ and ′ are multi-byte), the
@@ -41,5 +43,25 @@ func TestFixed(t *testing.T) {
 		if got := Fixed(test.v, test.dec); got != test.want {
 			t.Errorf("Fixed(%g, %d) = %q, want %q", test.v, test.dec, got, test.want)
 		}
+	}
+}
+
+func TestQuantityAndUnits(t *testing.T) {
+	for _, test := range []struct {
+		l    units.Length
+		want string
+	}{{0.42e-3, "420 µm"}, {1.2411, "1.241 m"}, {632.8e-9, "632.8 nm"}, {15e-3, "15 mm"}, {units.Length(math.Inf(1)), "∞"}} {
+		if got := Quantity(test.l); got != test.want {
+			t.Errorf("Quantity(%g) = %q, want %q", float64(test.l), got, test.want)
+		}
+	}
+	if _, s := LengthUnit(2e-6, 9e-4); s != "µm" {
+		t.Errorf("LengthUnit(µm values) = %s", s)
+	}
+	if _, s := LengthUnit(0.5, units.Length(math.Inf(1))); s != "mm" {
+		t.Errorf("LengthUnit(0.5 m, ∞) = %s, want mm", s)
+	}
+	if got := In(12.34567e-3, units.Millimeter, 2); got != "12.35" {
+		t.Errorf("In = %q", got)
 	}
 }
