@@ -111,8 +111,10 @@ func (fakeTable) Table() table.Table {
 
 type fakeFigure struct{}
 
-func (fakeFigure) SVG() ([]byte, error) { return []byte(`<svg xmlns="http://www.w3.org/2000/svg"/>`), nil }
-func (fakeFigure) String() string       { return "Caustic of the expander" }
+func (fakeFigure) SVG() ([]byte, error) {
+	return []byte(`<svg xmlns="http://www.w3.org/2000/svg"/>`), nil
+}
+func (fakeFigure) String() string { return "Caustic of the expander" }
 
 // Show renders what it is given by the interfaces it implements, and
 // stops the cell (here: records the stop) on an error, naming the line.
