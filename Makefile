@@ -3,7 +3,11 @@
 #
 #   make notebook        install what is missing, build and register the kernel, serve notebooks/
 #   make test            go vet, go test, and every notebook executed headless with the kernel
-#   make kernel          build gonb/goimports at the pinned versions, write the kernelspec, warm the cache
+#   make nbtest NOTEBOOKS='path/*.ipynb'
+#                        execute those notebooks headless and check them (default notebooks/*.ipynb):
+#                        fails on a cell that does not compile, crashes, exits nonzero or prints a
+#                        line starting "error:", and on a missing figure; results in build/notebooks
+#   make kernel          build gonb/goimports/gopls at the pinned versions, write the kernelspec, warm the cache
 #   make doctor          list what is missing, with the fix for each
 #   make bench           Go benchmarks of opticslib
 #   make latency         measure notebook cell latency (see DEVELOPERS.md)

@@ -2,11 +2,13 @@
 //
 // The kernel is gonb (github.com/janpfeifer/gonb) at the exact version pinned
 // in the checkout's go.mod, built from the module cache with goimports beside
-// it. Everything set-up writes goes under a state directory, by default
-// <checkout>/.beamnote, so nothing global changes unless the user asks for a
-// per-user kernelspec:
+// it, and gopls, which gonb asks for completion and contextual help, at the
+// version pinned by its own tool module kernel/tools/gopls (gopls needs an
+// x/tools of its own, older than goimports'). Everything set-up writes goes
+// under a state directory, by default <checkout>/.beamnote, so nothing global
+// changes unless the user asks for a per-user kernelspec:
 //
-//	.beamnote/bin/gonb, goimports    tools built at the pinned versions
+//	.beamnote/bin/gonb, goimports, gopls   tools built at the pinned versions
 //	.beamnote/bin/gonb-kernel        launcher of gonb that kernel.json runs (see below)
 //	.beamnote/bin/shim/go            wrapper of the go command (see below)
 //	.beamnote/jupyter/               Jupyter data dir (JUPYTER_DATA_DIR)
@@ -54,6 +56,23 @@
 // kernel.json, the launcher, the wrapper and the logs hold absolute paths
 // of the checkout. After moving the checkout, run "make kernel" again; the
 // doctor and "serve" report a kernelspec written for another checkout.
+//
+// # Errors in cells
+//
+// kernel.json starts gonb with --raw_error, so that a cell that does not
+// compile has the compiler's messages, by cell and line ("Cell[3]: Line 2"),
+// in its error output (the traceback) rather than only in an HTML block:
+// a terminal, nbconvert and an HTML export all show them. gonb v0.11.4 also
+// gives a cell whose program exits nonzero an error output. [CheckExecuted]
+// fails a cell with an error output, a crash on stderr, or a line of output
+// that starts with "error:" (a cell that printed its error and returned, or
+// nb.Must and nb.Check, which print "error: …" and exit 1).
+//
+// # Completion
+//
+// gonb starts gopls when the kernel starts and first connects to it 12 s
+// later (a fixed wait in gonb v0.11.4), so the first completion or help
+// request of a kernel can take that long; later ones take 0.1–0.5 s.
 //
 // # Notebook server
 //

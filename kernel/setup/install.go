@@ -1,6 +1,7 @@
 package setup
 
 import (
+	"debug/buildinfo"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -20,6 +21,18 @@ const (
 	goimportsPkg = "golang.org/x/tools/cmd/goimports"
 )
 
+// goplsPkg is the language server that gonb asks for completion and
+// contextual help; gonb finds it on PATH when the kernel starts. It is a
+// tool of its own module, [Layout.GoplsModule], because gopls pins an
+// x/tools of its own that goimports' cannot replace (gopls v0.23.0 does not
+// build against x/tools v0.52.0).
+const goplsPkg = "golang.org/x/tools/gopls"
+
+// GoplsModule is the directory of the tool module that pins gopls
+// (kernel/tools/gopls, with its own go.mod and go.sum; "go vet ./..." and
+// "go test ./..." in the checkout do not descend into a nested module).
+func (l Layout) GoplsModule() string { return filepath.Join(l.Root, "kernel", "tools", "gopls") }
+
 // MinGo is the oldest Go release the checkout builds with (go.mod's go line).
 const MinGo = "1.26"
 
@@ -32,7 +45,7 @@ type InstallOptions struct {
 	SkipWarm bool
 }
 
-// Install builds gonb and goimports at their pinned versions, writes the go
+// Install builds gonb, goimports and gopls at their pinned versions, writes the go
 // wrapper and the kernelspec, and warms the build cache. Progress goes to log.
 // It returns the kernelspec directory.
 func Install(l Layout, opt InstallOptions, log io.Writer) (string, error) {
@@ -48,6 +61,11 @@ func Install(l Layout, opt InstallOptions, log io.Writer) (string, error) {
 		return "", err
 	}
 	if err := l.run(log, l.Root, nil, l.RealGo, "build", "-o", l.Bin()+string(os.PathSeparator), gonbPkg, goimportsPkg); err != nil {
+		return "", err
+	}
+	fmt.Fprintf(log, "beamnote: building gopls at the version pinned in %s (completion and help in cells; the first build takes a minute)\n",
+		filepath.Join(l.GoplsModule(), "go.mod"))
+	if err := l.run(log, l.GoplsModule(), nil, l.RealGo, "build", "-o", l.Bin()+string(os.PathSeparator), goplsPkg); err != nil {
 		return "", err
 	}
 	if err := atomicfile.Write(l.shimPath(), l.shimScript(), 0o755); err != nil {
@@ -154,11 +172,42 @@ func (l Layout) WriteKernelspec(dataDir string) (string, error) {
 // PinnedVersion returns the version of module mod that the checkout's go.mod
 // selects.
 func (l Layout) PinnedVersion(mod string) (string, error) {
-	out, err := l.output(l.Root, l.RealGo, "list", "-m", "-f", "{{.Version}}", mod)
+	return l.pinnedVersion(l.Root, mod)
+}
+
+// pinnedVersion returns the version of module mod that the go.mod in dir
+// selects.
+func (l Layout) pinnedVersion(dir, mod string) (string, error) {
+	out, err := l.output(dir, l.RealGo, "list", "-m", "-f", "{{.Version}}", mod)
 	if err != nil {
 		return "", err
 	}
 	return strings.TrimSpace(out), nil
+}
+
+// BuiltVersion returns the path and version of the main module that the Go
+// binary bin was built from, as recorded in it (what `go version -m bin`
+// prints). A tool's own version string can lag behind: gonb v0.11.4 reports
+// "v0.11.1" for -V.
+func BuiltVersion(bin string) (path, version string, err error) {
+	info, err := buildinfo.ReadFile(bin)
+	if err != nil {
+		return "", "", err
+	}
+	return info.Main.Path, info.Main.Version, nil
+}
+
+// checkBuilt reports an error unless bin was built from module mod at
+// version want.
+func checkBuilt(bin, mod, want string) error {
+	path, got, err := BuiltVersion(bin)
+	if err != nil {
+		return err
+	}
+	if path != mod || got != want {
+		return fmt.Errorf("%s is %s %s, want %s %s", bin, path, got, mod, want)
+	}
+	return nil
 }
 
 // CheckGoVersion reports an error if the go command is older than [MinGo].

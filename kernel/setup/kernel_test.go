@@ -20,11 +20,12 @@ import (
 
 // TestKernelSurvivesCrashes executes testdata/notebooks/reliability.ipynb with
 // the installed beamnote kernel: a cell that panics, one that calls os.Exit,
-// one that does not compile, one that prints "error: …" and returns, and one
-// that writes "error: …" to stderr and exits 1 (what nb.Must does) must each
-// be reported as a problem of that cell, with the message; a line that only
-// contains "error:" is not a problem; and the cells after them must still
-// run. It needs `make kernel` first and skips otherwise.
+// one that does not compile, one that prints "error: …" and returns, one
+// that writes "error: …" to stderr and exits 1, and an nb.Must that fails
+// must each be reported as a problem of that cell, with the message; a line
+// that only contains "error:" is not a problem; and the cells after them
+// must still run. The HTML export must show the compiler's message by cell
+// and line as text (gonb's --raw_error). It needs `make kernel` first and skips otherwise.
 func TestKernelSurvivesCrashes(t *testing.T) {
 	if testing.Short() {
 		t.Skip("runs a Jupyter kernel")
@@ -49,12 +50,13 @@ func TestKernelSurvivesCrashes(t *testing.T) {
 		`: the cell reported an error on stdout: error: lens "L2": focal length = 0 m: must be nonzero` + "\n",
 		`: the cell reported an error on stderr: error: beam: waist radius = -1 mm: must be positive (exit status 1)`,
 		`cell 6 (fmt.Println("   Error: solver did not converge")): the cell reported an error on stdout: Error: solver did not converge`,
+		`cell 8 (import "github.com/beamnote/beamnote/kernel/nb"): the cell reported an error on stderr: error: strconv.ParseFloat: parsing "0.42 mm": invalid syntax (in: w := nb.Must(strconv.ParseFloat("0.42 mm", 64)); exit status 1)`,
 	} {
 		if !strings.Contains(err.Error(), want) {
 			t.Errorf("ExecuteNotebooks error lacks %q:\n%v", want, err)
 		}
 	}
-	for _, cell := range []string{"cell 4 (", "cell 5 ("} {
+	for _, cell := range []string{"cell 4 (", "cell 5 (", "cell 8 ("} {
 		if n := strings.Count(err.Error(), cell); n != 1 {
 			t.Errorf("ExecuteNotebooks error names %s %d times, want once:\n%v", cell, n, err)
 		}
@@ -69,6 +71,15 @@ func TestKernelSurvivesCrashes(t *testing.T) {
 	var nb Notebook
 	if err := json.Unmarshal(b, &nb); err != nil {
 		t.Fatal(err)
+	}
+	html, err := os.ReadFile(filepath.Join(out, "reliability.html"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"Cell[3]: Line 2", "undefined: undefinedFunction"} {
+		if !bytes.Contains(html, []byte(want)) {
+			t.Errorf("the HTML export of reliability.ipynb lacks %q", want)
+		}
 	}
 	last := nb.Cells[len(nb.Cells)-1]
 	alive := false
@@ -184,5 +195,171 @@ func TestServeSmoke(t *testing.T) {
 	resp.Body.Close()
 	if resp.StatusCode != http.StatusOK {
 		t.Errorf("notebooks/00-quickstart.ipynb through the server: status %d, want 200", resp.StatusCode)
+	}
+}
+
+// kernelInstalled skips t unless the beamnote kernel is installed in the
+// project-local Jupyter data directory.
+func kernelInstalled(t *testing.T) Layout {
+	t.Helper()
+	if testing.Short() {
+		t.Skip("runs a Jupyter kernel")
+	}
+	l, err := FindLayout(".")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := os.Stat(filepath.Join(KernelDir(l.JupyterData()), "kernel.json")); err != nil || Jupyter() == "" || Python() == "" {
+		t.Skip("beamnote kernel not installed (run make kernel)")
+	}
+	return l
+}
+
+// kernelClient runs testdata/kernelclient.py in mode with the project-local
+// kernelspec and decodes the JSON it prints into v.
+func kernelClient(t *testing.T, l Layout, mode string, v any) {
+	t.Helper()
+	cmd := exec.Command(Python(), filepath.Join("testdata", "kernelclient.py"), mode)
+	cmd.Env = Environ(l.JupyterEnv(false))
+	var stderr bytes.Buffer
+	cmd.Stderr = &stderr
+	out, err := cmd.Output()
+	if err != nil {
+		t.Fatalf("kernelclient.py %s: %v\n%s", mode, err, stderr.Bytes())
+	}
+	if err := json.Unmarshal(out, v); err != nil {
+		t.Fatalf("kernelclient.py %s: %v\n%s", mode, err, out)
+	}
+}
+
+// TestKernelCompileErrorText executes, with nbclient, a cell that calls an
+// undefined function on its line 3, and the cell after it. The compiler's
+// message and the cell line must be in the cell's error output itself
+// (nbformat "error" output: ename, evalue, traceback), which is what a
+// terminal, nbconvert and an HTML export show, and in the message that
+// nbclient raises (what `jupyter nbconvert --execute` prints); the next
+// cell must still run.
+func TestKernelCompileErrorText(t *testing.T) {
+	l := kernelInstalled(t)
+	var res struct {
+		Terminal string     `json:"terminal"`
+		Outputs  [][]Output `json:"outputs"`
+	}
+	kernelClient(t, l, "errors", &res)
+	if len(res.Outputs) != 2 {
+		t.Fatalf("kernelclient.py errors: %d cells, want 2", len(res.Outputs))
+	}
+	var text strings.Builder
+	for _, o := range res.Outputs[0] {
+		if o.OutputType == "error" {
+			fmt.Fprintln(&text, o.EName, o.EValue, strings.Join(o.Traceback, "\n"))
+		}
+	}
+	for _, want := range []string{"undefined: nosuchname", "Cell[1]: Line 3"} {
+		if !strings.Contains(text.String(), want) {
+			t.Errorf("error output of the cell lacks %q: %+v", want, res.Outputs[0])
+		}
+		if !strings.Contains(res.Terminal, want) {
+			t.Errorf("nbclient's CellExecutionError lacks %q:\n%s", want, res.Terminal)
+		}
+	}
+	if got := CheckExecuted(Notebook{Cells: []Cell{{CellType: "code", Source: json.RawMessage(`"x"`), Outputs: res.Outputs[0]}}}); len(got) == 0 ||
+		!strings.Contains(got[0], "does not compile: Cell[1]: Line 3: undefined: nosuchname") {
+		t.Errorf("CheckExecuted(compile error) = %q, want %q", got, "does not compile: Cell[1]: Line 3: undefined: nosuchname")
+	}
+	ran := false
+	for _, o := range res.Outputs[1] {
+		ran = ran || strings.Contains(multiline(o.Text), "still running")
+	}
+	if !ran {
+		t.Errorf("the cell after the compile error did not run: %+v", res.Outputs[1])
+	}
+}
+
+// procUsage is what kernelclient.py reads from /proc/<pid>/status and
+// /proc/<pid>/stat (proc(5)) for gopls.
+type procUsage struct {
+	RSSKB       int     `json:"rss_kb"`
+	PeakRSSKB   int     `json:"peak_rss_kb"`
+	CPU         float64 `json:"cpu_s"`
+	ChildrenCPU float64 `json:"children_cpu_s"`
+}
+
+// completeReply is the content of a complete_reply (Jupyter messaging
+// protocol, "Completion").
+type completeReply struct {
+	Status  string   `json:"status"`
+	Matches []string `json:"matches"`
+}
+
+// TestKernelCompletion asks the kernel, with jupyter_client, for the
+// completion of "paraxial.NewBuil" and for help on "beam.FromWaist" in a
+// cell that imports them (complete_request and inspect_request of the
+// Jupyter messaging protocol), which gonb answers through gopls, found on
+// the kernel's PATH in .beamnote/bin. It logs the wall time of the first
+// and a later completion, and gopls's memory and CPU time (run with -v to
+// see them). The first completion waits for gonb's first connection to
+// gopls, about 12 s after the kernel starts.
+func TestKernelCompletion(t *testing.T) {
+	l := kernelInstalled(t)
+	if _, err := os.Stat(filepath.Join(l.Bin(), "gopls")); err != nil {
+		t.Skip("gopls not installed (run make kernel)")
+	}
+	t.Parallel() // mostly waiting for gonb's connection to gopls
+	var res struct {
+		KernelStart     float64       `json:"kernel_start_s"`
+		SetupStatus     string        `json:"setup_status"`
+		GoplsAtStart    bool          `json:"gopls_running_at_start"`
+		FirstAt         float64       `json:"first_complete_at_s"`
+		FirstS          float64       `json:"first_complete_s"`
+		First           completeReply `json:"first_complete"`
+		LaterS          float64       `json:"later_complete_s"`
+		Later           completeReply `json:"later_complete"`
+		OtherS          float64       `json:"other_complete_s"`
+		Other           completeReply `json:"other_complete"`
+		InspectS        float64       `json:"inspect_s"`
+		GoplsAfterFirst *procUsage    `json:"gopls_after_first"`
+		GoplsAtEnd      *procUsage    `json:"gopls_at_end"`
+		Inspect         struct {
+			Status string            `json:"status"`
+			Found  bool              `json:"found"`
+			Data   map[string]string `json:"data"`
+		} `json:"inspect"`
+	}
+	kernelClient(t, l, "complete", &res)
+	if res.SetupStatus != "ok" {
+		t.Errorf("the set-up cell importing opticslib: status %q, want ok", res.SetupStatus)
+	}
+	if !res.GoplsAtStart {
+		t.Errorf("no gopls process under the kernel after it started")
+	}
+	for _, test := range []struct {
+		name  string
+		reply completeReply
+		want  string
+	}{
+		{"paraxial.NewBuil (first)", res.First, "NewBuilder"},
+		{"paraxial.NewBuil (again)", res.Later, "NewBuilder"},
+		{"beam.FromWai", res.Other, "FromWaist"},
+	} {
+		if test.reply.Status != "ok" || !slices.Contains(test.reply.Matches, test.want) {
+			t.Errorf("complete %s = %s %q, want ok with %q", test.name, test.reply.Status, test.reply.Matches, test.want)
+		}
+	}
+	doc := res.Inspect.Data["text/markdown"]
+	if !res.Inspect.Found || !strings.Contains(doc, "func beam.FromWaist(s beam.WaistSpec) (beam.Gaussian, error)") ||
+		!strings.Contains(doc, "FromWaist returns the beam at the plane where s gives it") {
+		t.Errorf("inspect beam.FromWaist = found %v, %q; want its signature and doc comment", res.Inspect.Found, doc)
+	}
+	t.Logf("kernel start %.2f s; first completion %.2f s (asked %.2f s after the start), later %.3f s, other package %.3f s; inspect %.3f s",
+		res.KernelStart, res.FirstS, res.FirstAt, res.LaterS, res.OtherS, res.InspectS)
+	for _, u := range []struct {
+		when string
+		p    *procUsage
+	}{{"after the first completion", res.GoplsAfterFirst}, {"at the end", res.GoplsAtEnd}} {
+		if u.p != nil {
+			t.Logf("gopls %s: RSS %.0f MB (peak %.0f MB), CPU %.2f s (+ %.2f s in the go commands it ran)", u.when,
+				float64(u.p.RSSKB)/1024, float64(u.p.PeakRSSKB)/1024, u.p.CPU, u.p.ChildrenCPU)
+		}
 	}
 }

@@ -159,13 +159,24 @@ func cellFailure(outs []Output) string {
 		exit = strings.TrimSpace(exitRE.FindString(errOut.EValue))
 	}
 	for _, name := range []string{"stderr", "stdout"} {
-		if line := strings.TrimSpace(errorLineRE.FindString(streams[name])); line != "" {
-			msg := fmt.Sprintf("the cell reported an error on %s: %s", name, line)
-			if exit != "" {
-				msg += " (" + exit + ")"
-			}
-			return msg
+		loc := errorLineRE.FindStringIndex(streams[name])
+		if loc == nil {
+			continue
 		}
+		msg := fmt.Sprintf("the cell reported an error on %s: %s", name, strings.TrimSpace(streams[name][loc[0]:loc[1]]))
+		// nb.Must and nb.Check name the call on the next line, "  in: …".
+		var notes []string
+		next, _, _ := strings.Cut(strings.TrimPrefix(streams[name][loc[1]:], "\n"), "\n")
+		if next = strings.TrimSpace(next); strings.HasPrefix(next, "in: ") {
+			notes = append(notes, next)
+		}
+		if exit != "" {
+			notes = append(notes, exit)
+		}
+		if len(notes) > 0 {
+			msg += " (" + strings.Join(notes, "; ") + ")"
+		}
+		return msg
 	}
 	if crash := strings.TrimSpace(crashRE.FindString(streams["stderr"])); crash != "" {
 		msg := fmt.Sprintf("the cell program crashed (%q on stderr", crash)

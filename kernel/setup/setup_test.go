@@ -11,6 +11,7 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 	"time"
@@ -45,6 +46,10 @@ func TestCheckExecuted(t *testing.T) {
 		`cell 1 (var m map[string]int): the cell program crashed ("panic:`,
 		`cell 2 (os.Exit(3)): the cell program crashed ("exit status 3"`,
 		`cell 3 (undefined()): error ERROR: undefined: undefined`,
+		`cell 4 (undefinedFunction()): does not compile: Cell[3]: Line 2: undefined: undefinedFunction`,
+		`cell 5 (if err := errors.New("lens \"L2\": focal length = 0 m: mu...): the cell reported an error on stdout: error: lens "L2": focal length = 0 m: must be nonzero`,
+		`cell 6 (fmt.Fprintln(os.Stderr, "error: beam: waist radius = -1 m...): the cell reported an error on stderr: error: beam: waist radius = -1 mm: must be positive (exit status 1)`,
+		`cell 7 (fmt.Println("   Error: solver did not converge")): the cell reported an error on stdout: Error: solver did not converge`,
 		`no cell produced an image/svg+xml figure`,
 	} {
 		found := false
@@ -57,8 +62,10 @@ func TestCheckExecuted(t *testing.T) {
 			t.Errorf("CheckExecuted(bad) = %q, want a problem like %q", p, want)
 		}
 	}
-	if len(p) != 5 {
-		t.Errorf("CheckExecuted(bad) gave %d problems, want 5: %q", len(p), p)
+	// One problem per failing cell, none for cell 8, whose lines only
+	// contain "error:".
+	if len(p) != 9 {
+		t.Errorf("CheckExecuted(bad) gave %d problems, want 9: %q", len(p), p)
 	}
 }
 
@@ -398,6 +405,10 @@ func TestKernelspecKeepsUserPath(t *testing.T) {
 	if err := l.checkKernelspec(filepath.Join(kdir, "kernel.json")); err != nil {
 		t.Errorf("checkKernelspec(written kernelspec) = %v, want nil", err)
 	}
+	// Compile errors as text in the error output (see the package doc).
+	if !slices.Contains(spec.Argv, "--raw_error") {
+		t.Errorf("kernel.json argv %q lacks --raw_error", spec.Argv)
+	}
 	userDir := filepath.Join(l.State, "user tools")
 	t.Setenv("PATH", userDir+string(os.PathListSeparator)+"/usr/bin:/bin")
 	cmd := exec.Command(spec.Argv[0], spec.Argv[1:]...)
@@ -522,6 +533,32 @@ func TestCrashOnlyOnStderr(t *testing.T) {
 	}
 }
 
+// TestErrorLine checks which stream lines make a cell fail: a line that
+// starts with "error:" in any case after blanks, on stdout or stderr, even
+// when Jupyter split the stream over several outputs; not "error:" inside a
+// line.
+func TestErrorLine(t *testing.T) {
+	out := func(name string, text ...string) Output {
+		raw, _ := json.Marshal(text)
+		return Output{OutputType: "stream", Name: name, Text: raw}
+	}
+	for _, test := range []struct {
+		outs []Output
+		want string // "" for no problem
+	}{
+		{[]Output{out("stdout", "error: no focus\n")}, "the cell reported an error on stdout: error: no focus"},
+		{[]Output{out("stdout", "w = 1 mm\n", "\tERROR: no focus\n")}, "the cell reported an error on stdout: ERROR: no focus"},
+		{[]Output{out("stderr", "Error: x\n"), out("stderr", "exit status 1\n")}, "the cell reported an error on stderr: Error: x (exit status 1)"},
+		{[]Output{out("stdout", "w = 1 mm\ner"), out("stdout", "ror: split\n")}, "the cell reported an error on stdout: error: split"},
+		{[]Output{out("stdout", "focus error: 0.1 mm\n", "errors: none\n", "error 3 dB\n")}, ""},
+		{[]Output{out("stderr", "warning: error: x\n")}, ""},
+	} {
+		if got := cellFailure(test.outs); got != test.want {
+			t.Errorf("cellFailure(%+v) = %q, want %q", test.outs, got, test.want)
+		}
+	}
+}
+
 // TestShimAddsCellFlags runs the wrapper over a stand-in for the real go
 // command that records its arguments: in the cell module "go build" and
 // "go test" get CellGoFlags; elsewhere, and for other commands, the
@@ -558,5 +595,33 @@ func TestShimAddsCellFlags(t *testing.T) {
 		if strings.TrimSpace(string(got)) != test.want {
 			t.Errorf("shim %v in %s called go with %q, want %q", test.args, test.dir, strings.TrimSpace(string(got)), test.want)
 		}
+	}
+}
+
+// TestCheckBuilt reads the build information of a Go binary (debug/buildinfo,
+// what `go version -m` prints): the test binary is built from this module at
+// version "(devel)", so it is not gonb v0.11.4, and a file that is not a Go
+// binary is an error too.
+func TestCheckBuilt(t *testing.T) {
+	self, err := os.Executable()
+	if err != nil {
+		t.Skip(err)
+	}
+	path, version, err := BuiltVersion(self)
+	if err != nil || path != ModulePath {
+		t.Fatalf("BuiltVersion(test binary) = %q, %q, %v; want %q", path, version, err, ModulePath)
+	}
+	if err := checkBuilt(self, ModulePath, version); err != nil {
+		t.Errorf("checkBuilt(test binary, %s, %s) = %v, want nil", ModulePath, version, err)
+	}
+	if err := checkBuilt(self, gonbPkg, "v0.11.4"); err == nil || !strings.Contains(err.Error(), "want "+gonbPkg+" v0.11.4") {
+		t.Errorf("checkBuilt(test binary, gonb v0.11.4) = %v, want an error naming the wanted version", err)
+	}
+	notGo := filepath.Join(t.TempDir(), "gonb")
+	if err := os.WriteFile(notGo, []byte("#!/bin/sh\n"), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	if err := checkBuilt(notGo, gonbPkg, "v0.11.4"); err == nil {
+		t.Errorf("checkBuilt(shell script) = nil, want an error")
 	}
 }

@@ -37,7 +37,8 @@ func (ws WaistList) Surfaces(sys paraxial.System) WaistList {
 // from the input plane and from the element (negative for a virtual waist
 // before it), the waist radius, the Rayleigh range and the index after the
 // element; x and y columns when the beam is astigmatic. Each length column
-// is in the unit that suits it (µm, mm or m), named in its header.
+// is in the unit that suits it (µm, mm or m), named in its header; radii
+// and Rayleigh ranges have four significant digits.
 func (ws WaistList) Table() table.Table {
 	astig := false
 	for _, w := range ws {
@@ -63,14 +64,18 @@ func (ws WaistList) Table() table.Table {
 		}
 		if astig {
 			t.Rows = append(t.Rows, []string{name, table.In(w.Z, units.Millimeter, 2), table.In(w.ZY, units.Millimeter, 2),
-				table.In(w.Radius, ru, 3), table.In(w.RadiusY, ru, 3), table.In(w.RayleighRange, zu, 3), table.In(w.RayleighRangeY, zu, 3), table.Fixed(w.Index, 4)})
+				sig(w.Radius, ru), sig(w.RadiusY, ru), sig(w.RayleighRange, zu), sig(w.RayleighRangeY, zu), table.Fixed(w.Index, 4)})
 			continue
 		}
 		t.Rows = append(t.Rows, []string{name, table.In(w.Z, units.Millimeter, 2), table.In(w.AfterElement, units.Millimeter, 2),
-			table.In(w.Radius, ru, 3), table.In(w.RayleighRange, zu, 3), table.Fixed(w.Index, 4)})
+			sig(w.Radius, ru), sig(w.RayleighRange, zu), table.Fixed(w.Index, 4)})
 	}
 	return t
 }
+
+// sig formats l in unit u with four significant digits, so that a column
+// spanning decades (a focus next to a collimated beam) keeps its precision.
+func sig(l, u units.Length) string { return table.Sig(float64(l/u), 4) }
 
 // Clips is the result of [Clipping]: one check per clear aperture.
 type Clips []Clip

@@ -1,18 +1,17 @@
 package optplot
 
 import (
-	"bytes"
 	"errors"
-	"fmt"
+	"image/color"
 	"math"
 	"strconv"
+	"strings"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
-	"gonum.org/v1/plot/vg/vgsvg"
 
 	"github.com/beamnote/beamnote/opticslib/beam"
 	"github.com/beamnote/beamnote/opticslib/paraxial"
@@ -25,21 +24,114 @@ const (
 	YLabel = "beam radius ±w (mm)"
 )
 
-// Option configures [Caustic].
+// Option configures [Caustic] and [AlongZ]. Options are applied in order;
+// the first invalid value makes the figure function return a
+// [*ParamError] wrapping [ErrOption].
 type Option func(*config)
 
 type config struct {
-	title   string
-	band    bool
-	labels  bool
-	waists  bool
-	rays    []paraxial.Ray
-	minT    float64
-	badMinT bool
+	title, caption       string
+	titleSet, captionSet bool
+	band, labels, waists bool
+	rays                 []paraxial.Ray
+	minT                 float64
+	width, height        vg.Length
+	hasRange             bool
+	z0, z1               float64 // mm, the x range
+	zoom                 bool
+	label                string
+	also                 []overlay
+	err                  error
 }
 
-// Title sets the plot title. The default is "Gaussian beam caustic".
-func Title(s string) Option { return func(c *config) { c.title = s } }
+// overlay is a caustic drawn over the main one ([Also]).
+type overlay struct {
+	label string
+	c     beam.Caustic
+}
+
+// fail records the first bad option.
+func (c *config) fail(fn, param string, v any, reason string) {
+	if c.err == nil {
+		c.err = &ParamError{Func: fn, Param: param, Value: v, Reason: reason, Err: ErrOption}
+	}
+}
+
+// Title sets the plot title. The default is "Gaussian beam caustic" for
+// [Caustic] and the quantity's name for [AlongZ].
+func Title(s string) Option { return func(c *config) { c.title, c.titleSet = s, true } }
+
+// Caption sets the figure's caption ([Figure.Caption], its text
+// fallback). The default is the title followed by a one-line summary (the
+// waists, for a caustic), and for irradiance always the laser-safety note.
+func Caption(s string) Option { return func(c *config) { c.caption, c.captionSet = s, true } }
+
+// Size sets the figure's width and height (vg units: write
+// 18*vg.Centimeter; each positive, finite and at most 200 cm). The
+// default is [DefaultWidth] × [DefaultHeight], 16 cm × 9 cm.
+func Size(w, h vg.Length) Option {
+	return func(c *config) {
+		for _, d := range []struct {
+			name string
+			v    vg.Length
+		}{{"width", w}, {"height", h}} {
+			if err := checkSize("Size", d.name, d.v); err != nil {
+				c.fail("Size", d.name, cm(d.v), "must be positive, finite and at most 200 cm")
+				return
+			}
+		}
+		c.width, c.height = w, h
+	}
+}
+
+// ZRange sets the axial range shown, from z0 to z1 (metres from the input
+// plane, finite, z0 < z1). The default is the sampled range of the
+// caustic. The y range is fitted to the beam inside the range shown.
+func ZRange(z0, z1 units.Length) Option {
+	return func(c *config) {
+		if !finite(float64(z0)) || !finite(float64(z1)) || !(z0 < z1) {
+			c.fail("ZRange", "range z0 … z1", z0.String()+" … "+z1.String(), "must be finite with z0 < z1")
+			return
+		}
+		c.hasRange, c.zoom = true, false
+		c.z0, c.z1 = z0.Millimeters(), z1.Millimeters()
+	}
+}
+
+// Zoom shows the axial range z ± halfWidth (metres; halfWidth positive,
+// both finite), typically around a focus, with the y range fitted to the
+// beam there. Between samples the envelope is drawn from the closed form
+// of a homogeneous medium (w² is quadratic in z, with slope 2w²/R at the
+// sample), so a zoom far narrower than the sample spacing still shows
+// the true waist.
+func Zoom(z, halfWidth units.Length) Option {
+	return func(c *config) {
+		if !finite(float64(z)) {
+			c.fail("Zoom", "centre z", z, "must be finite")
+			return
+		}
+		if !(halfWidth > 0) || !finite(float64(halfWidth)) {
+			c.fail("Zoom", "half width", halfWidth, "must be positive and finite")
+			return
+		}
+		c.hasRange, c.zoom = true, true
+		c.z0, c.z1 = (z - halfWidth).Millimeters(), (z + halfWidth).Millimeters()
+	}
+}
+
+// Label names the main caustic in the key; it is shown when set and
+// whenever [Also] adds another caustic (default "beam").
+func Label(s string) Option { return func(c *config) { c.label = s } }
+
+// Also draws another caustic on the same axes, for example the same beam
+// through a what-if variant of the system, with its own colour and dash
+// pattern and the key entry label. Its element marks and waist notes are
+// not drawn (those of the main caustic are). It may be given several
+// times; a caustic that fails the checks of [Caustic] makes the figure
+// function return an error naming it.
+func Also(label string, c beam.Caustic) Option {
+	return func(cf *config) { cf.also = append(cf.also, overlay{label: label, c: c}) }
+}
 
 // Band controls the pale fill between −w and +w of the x plane (default
 // on).
@@ -57,6 +149,7 @@ func WaistNotes(on bool) Option { return func(c *config) { c.waists = on } }
 // radians), is traced with [paraxial.System.MatrixTo] to every sample
 // position of the caustic. A fan of a few rays from an object point shows
 // where geometric optics puts the image, next to the beam's own waist.
+// [AlongZ] ignores it.
 func Rays(rays ...paraxial.Ray) Option {
 	return func(c *config) { c.rays = append([]paraxial.Ray(nil), rays...) }
 }
@@ -67,110 +160,219 @@ func Rays(rays ...paraxial.Ray) Option {
 func MinTransmission(t float64) Option {
 	return func(c *config) {
 		if !(t > 0 && t <= 1) {
-			c.badMinT = true
+			c.fail("MinTransmission", "transmitted fraction t", t, "must lie in (0, 1]")
 			return
 		}
 		c.minT = t
 	}
 }
 
-// farStop is the aperture radius, in units of the largest beam radius,
-// beyond which a passing stop is not drawn.
+// farStop is the aperture radius, in units of the largest beam radius
+// shown, beyond which a passing stop is not drawn (it is listed in a note
+// instead).
 const farStop = 2.0
 
-// ErrCaustic is returned by [Caustic] for an empty or inconsistent caustic.
+// ErrCaustic is wrapped by the errors of [Caustic] and [AlongZ] for an
+// empty or inconsistent caustic.
 var ErrCaustic = errors.New("optplot: caustic needs at least 2 samples with matching Z, W and WY lengths and finite values")
 
-// ErrOption is returned by [Caustic] for an invalid option value.
-var ErrOption = errors.New("optplot: MinTransmission must lie in (0, 1]")
+// ErrOption is wrapped by the errors of an invalid option value.
+var ErrOption = errors.New("optplot: invalid option")
 
-// Caustic returns a plot of the beam envelope ±w(z) of c, in mm against z
-// in mm, with the zero-thickness elements of sys marked at their positions
-// and every real waist (c.Foci, c.FociY) annotated with its radius and
-// position (see the package documentation for the look). When the y
-// envelope differs from the x envelope it is drawn dashed, with a legend.
-// c is usually the result of [beam.Sample] for the same sys.
+// newConfig applies opts over the defaults.
+func newConfig(opts []Option) config {
+	cfg := config{title: "Gaussian beam caustic", band: true, labels: true, waists: true, minT: beam.DefaultMinTransmission}
+	for _, o := range opts {
+		if o != nil {
+			o(&cfg)
+		}
+	}
+	return cfg
+}
+
+// figure wraps p with the configured size and caption.
+func (cfg config) figure(p *plot.Plot, caption string) Figure {
+	f := newFigure(p)
+	if cfg.width > 0 {
+		f.Width, f.Height = cfg.width, cfg.height
+	}
+	f.Caption = caption
+	if cfg.captionSet {
+		f.Caption = cfg.caption
+	}
+	return f
+}
+
+// checkCaustic returns a [*ParamError] wrapping [ErrCaustic] unless c has
+// at least two samples, Z, W and (when present) WY of one length, and
+// finite values. name is the caustic's name in the message.
+func checkCaustic(fn, name string, c beam.Caustic) error {
+	bad := func(param string, v any, reason string) error {
+		return &ParamError{Func: fn, Param: name + "." + param, Value: v, Reason: reason, Err: ErrCaustic}
+	}
+	n := len(c.Z)
+	if n < 2 {
+		return bad("Z samples", n, "need at least 2 (use beam.Sample)")
+	}
+	if len(c.W) != n {
+		return bad("W samples", len(c.W), "must equal the "+strconv.Itoa(n)+" samples of Z")
+	}
+	if c.WY != nil && len(c.WY) != n {
+		return bad("WY samples", len(c.WY), "must equal the "+strconv.Itoa(n)+" samples of Z")
+	}
+	for i := range n {
+		for _, v := range []struct {
+			param string
+			v     units.Length
+		}{{"Z", c.Z[i]}, {"W", c.W[i]}, {"WY", wyAt(c, i)}} {
+			if !finite(float64(v.v)) {
+				return bad(v.param+"["+strconv.Itoa(i)+"]", v.v.String(), "must be finite")
+			}
+		}
+		if i > 0 && c.Z[i] < c.Z[i-1] {
+			return bad("Z["+strconv.Itoa(i)+"]", c.Z[i], "must not be less than Z["+strconv.Itoa(i-1)+"] = "+c.Z[i-1].String())
+		}
+	}
+	return nil
+}
+
+func wyAt(c beam.Caustic, i int) units.Length {
+	if c.WY == nil {
+		return c.W[i]
+	}
+	return c.WY[i]
+}
+
+// newPlot returns a plot in the package's look: title, axis labels and
+// ticks in dark grey, axes in neutral grey, tick labels precise enough to
+// differ ([niceTicks]).
+func newPlot(title, xLabel, yLabel string) *plot.Plot {
+	p := plot.New()
+	p.Title.Text = title
+	p.X.Label.Text = xLabel
+	p.Y.Label.Text = yLabel
+	for _, s := range []*text.Style{&p.Title.TextStyle, &p.X.Label.TextStyle, &p.Y.Label.TextStyle, &p.X.Tick.Label, &p.Y.Tick.Label} {
+		s.Color = labelColor
+	}
+	p.X.Color, p.Y.Color = axisColor, axisColor
+	p.X.Tick.Color, p.Y.Tick.Color = axisColor, axisColor
+	p.X.Tick.Marker = niceTicks{target: 6}
+	p.Y.Tick.Marker = niceTicks{target: 5}
+	return p
+}
+
+// Overlay styles, cycled: ochre long dashes, plum dot-dash, moss short
+// dashes, slate violet dots.
+var overlayStyles = []draw.LineStyle{
+	{Color: color.NRGBA{R: 0xb0, G: 0x7a, B: 0x3a, A: 0xff}, Width: vg.Points(1.3), Dashes: []vg.Length{vg.Points(6), vg.Points(2.5)}},
+	{Color: color.NRGBA{R: 0x78, G: 0x60, B: 0x8c, A: 0xff}, Width: vg.Points(1.3), Dashes: []vg.Length{vg.Points(5), vg.Points(2), vg.Points(1), vg.Points(2)}},
+	{Color: color.NRGBA{R: 0x5f, G: 0x7f, B: 0x3f, A: 0xff}, Width: vg.Points(1.3), Dashes: []vg.Length{vg.Points(3), vg.Points(2)}},
+	{Color: color.NRGBA{R: 0x6b, G: 0x6f, B: 0xa8, A: 0xff}, Width: vg.Points(1.3), Dashes: []vg.Length{vg.Points(1), vg.Points(1.8)}},
+}
+
+// addLine adds the polyline xys to p in style sty.
+func addLine(p *plot.Plot, xys plotter.XYs, sty draw.LineStyle) error {
+	l, err := plotter.NewLine(xys)
+	if err != nil {
+		return err
+	}
+	l.LineStyle = sty
+	p.Add(l)
+	return nil
+}
+
+// mirrored returns the points of xys with y negated.
+func mirrored(xys plotter.XYs) plotter.XYs {
+	out := make(plotter.XYs, len(xys))
+	for i, p := range xys {
+		out[i] = plotter.XY{X: p.X, Y: -p.Y}
+	}
+	return out
+}
+
+// Caustic returns a figure of the beam envelope ±w(z) of c, in mm against
+// z in mm, with the zero-thickness elements of sys marked at their
+// positions and every real waist (c.Foci, c.FociY) annotated with its
+// radius and position (see the package documentation for the look). When
+// the y envelope differs from the x envelope it is drawn dashed, with a
+// key. c is usually the result of [beam.Sample] for the same sys.
 //
 // Clear apertures are drawn as stops at the edges of the opening in x on
 // the element bars, and tubes (apertures on spaces) as lines along the
 // gap; one is drawn in the warning colour when it passes less than its
 // threshold: the opening's own, or the [MinTransmission] option (the
 // results of [beam.Caustic.Clipping], for a c made by [beam.Sample]). A
-// stop that passes and lies beyond twice the largest beam radius is left
-// out, so that wide optics do not squash the envelope.
+// stop that passes and lies beyond twice the largest beam radius shown is
+// not drawn, so that wide optics do not squash the envelope; a note in
+// the key lists each such stop with its clear diameter.
 //
-// It returns [ErrCaustic] if c has fewer than two points, the slices
-// differ in length, or a value is not finite, and [ErrOption] for a bad
-// option.
-func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (*plot.Plot, error) {
-	cfg := config{title: "Gaussian beam caustic", band: true, labels: true, waists: true, minT: beam.DefaultMinTransmission}
-	for _, o := range opts {
-		o(&cfg)
+// [ZRange] and [Zoom] choose the axial range, [Also] adds what-if
+// caustics, [Size] and [Caption] set the figure's size and caption. The
+// default caption is the title and the waists.
+//
+// It returns a [*ParamError] wrapping [ErrCaustic] if c (or a caustic of
+// [Also]) has fewer than two points, the slices differ in length, or a
+// value is not finite, and one wrapping [ErrOption] for a bad option.
+func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (Figure, error) {
+	cfg := newConfig(opts)
+	if cfg.err != nil {
+		return Figure{}, cfg.err
 	}
-	if cfg.badMinT {
-		return nil, ErrOption
+	if err := checkCaustic("Caustic", "c", c); err != nil {
+		return Figure{}, err
+	}
+	for i, o := range cfg.also {
+		if err := checkCaustic("Also", "caustic "+strconv.Itoa(i+1)+" "+strconv.Quote(o.label), o.c); err != nil {
+			return Figure{}, err
+		}
 	}
 	n := len(c.Z)
-	if n < 2 || len(c.W) != n || (c.WY != nil && len(c.WY) != n) {
-		return nil, ErrCaustic
+	lo, hi := c.Z[0].Millimeters(), c.Z[n-1].Millimeters()
+	if cfg.hasRange {
+		lo, hi = cfg.z0, cfg.z1
 	}
-	wy := c.WY
-	if wy == nil {
-		wy = c.W
+	if lo == hi {
+		hi = lo + 1
 	}
-	upper, lower := make(plotter.XYs, n), make(plotter.XYs, n)
-	upperY, lowerY := make(plotter.XYs, n), make(plotter.XYs, n)
-	wmax := 0.0
-	astig := false
-	for i := range n {
-		z, w, v := c.Z[i].Millimeters(), c.W[i].Millimeters(), wy[i].Millimeters()
-		if !finite(z) || !finite(w) || !finite(v) {
-			return nil, ErrCaustic
-		}
-		upper[i], lower[i] = plotter.XY{X: z, Y: w}, plotter.XY{X: z, Y: -w}
-		upperY[i], lowerY[i] = plotter.XY{X: z, Y: v}, plotter.XY{X: z, Y: -v}
-		wmax = math.Max(wmax, math.Max(w, v))
-		astig = astig || math.Abs(v-w) > 1e-9*math.Max(w, v)
+	env := sampleEnvelope(c, lo, hi)
+	if len(env.z) == 0 {
+		return Figure{}, &ParamError{Func: "Caustic", Param: "range shown", Value: strconv.FormatFloat(lo, 'g', 6, 64) + " … " + strconv.FormatFloat(hi, 'g', 6, 64) + " mm",
+			Reason: "lies outside the caustic's samples, " + c.Z[0].String() + " … " + c.Z[n-1].String(), Err: ErrOption}
 	}
-	if wmax == 0 {
+	upper, upperY := env.xys(env.wx), env.xys(env.wy)
+	astig := env.astigmatic()
+	wmax := env.maxIn(lo, hi)
+	overlays := make([]envelope, len(cfg.also))
+	for i, o := range cfg.also {
+		overlays[i] = sampleEnvelope(o.c, lo, hi)
+		wmax = math.Max(wmax, overlays[i].maxIn(lo, hi))
+	}
+	if !(wmax > 0) {
 		wmax = 1
 	}
 
-	p := plot.New()
-	p.Title.Text = cfg.title
-	p.X.Label.Text = XLabel
-	p.Y.Label.Text = YLabel
-	p.Title.TextStyle.Color = labelColor
-	p.X.Label.TextStyle.Color = labelColor
-	p.Y.Label.TextStyle.Color = labelColor
-	p.X.Tick.Label.Color = labelColor
-	p.Y.Tick.Label.Color = labelColor
-	p.X.Color, p.Y.Color = axisColor, axisColor
-	p.X.Tick.Color, p.Y.Tick.Color = axisColor, axisColor
+	p := newPlot(cfg.title, XLabel, YLabel)
+	sc := &scene{}
+	key := &keyBox{scene: sc}
 
 	if cfg.band {
-		ring := make(plotter.XYs, 0, 2*n)
+		ring := make(plotter.XYs, 0, 2*len(upper))
 		ring = append(ring, upper...)
-		for i := n - 1; i >= 0; i-- {
-			ring = append(ring, lower[i])
+		for i := len(upper) - 1; i >= 0; i-- {
+			ring = append(ring, plotter.XY{X: upper[i].X, Y: -upper[i].Y})
 		}
 		band, err := plotter.NewPolygon(ring)
 		if err != nil {
-			return nil, err
+			return Figure{}, err
 		}
 		band.Color = bandColor
 		band.LineStyle = draw.LineStyle{} // no outline
 		p.Add(band)
 	}
-
-	axis, err := plotter.NewLine(plotter.XYs{{X: upper[0].X, Y: 0}, {X: upper[n-1].X, Y: 0}})
-	if err != nil {
-		return nil, err
+	if err := addLine(p, plotter.XYs{{X: lo, Y: 0}, {X: hi, Y: 0}}, draw.LineStyle{Color: axisColor, Width: vg.Points(0.6), Dashes: []vg.Length{vg.Points(1), vg.Points(2.5)}}); err != nil {
+		return Figure{}, err
 	}
-	axis.LineStyle = draw.LineStyle{Color: axisColor, Width: vg.Points(0.6), Dashes: []vg.Length{vg.Points(1), vg.Points(2.5)}}
-	p.Add(axis)
 
-	legend := false
 	if len(cfg.rays) > 0 {
 		// The transfer matrix to each sample plane is the same for every
 		// ray: compute it once, not once per ray.
@@ -178,112 +380,136 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (*plot.Plot, e
 		for i, z := range c.Z {
 			m, err := sys.MatrixTo(z, paraxial.Tangential)
 			if err != nil {
-				return nil, err
+				return Figure{}, err
 			}
 			ms[i] = m
 		}
-		var first *plotter.Line
-		for _, r := range cfg.rays {
+		sty := draw.LineStyle{Color: rayColor, Width: vg.Points(0.7)}
+		for k, r := range cfg.rays {
 			xys := make(plotter.XYs, n)
 			for i, m := range ms {
 				y := float64(m.Apply(r).Y) * 1e3
 				if !finite(y) {
-					return nil, ErrCaustic
+					return Figure{}, &ParamError{Func: "Rays", Param: "ray " + strconv.Itoa(k+1) + " height at z = " + c.Z[i].String(), Value: units.Length(y / 1e3), Reason: "must be finite", Err: ErrOption}
 				}
 				xys[i] = plotter.XY{X: c.Z[i].Millimeters(), Y: y}
 			}
-			l, err := plotter.NewLine(xys)
-			if err != nil {
-				return nil, err
-			}
-			l.LineStyle = draw.LineStyle{Color: rayColor, Width: vg.Points(0.7)}
-			p.Add(l)
-			if first == nil {
-				first = l
+			if err := addLine(p, xys, sty); err != nil {
+				return Figure{}, err
 			}
 		}
-		p.Legend.Add("paraxial rays (x)", first)
-		legend = true
+		key.entries = append(key.entries, keyEntry{text: "paraxial rays (x)", line: sty})
 	}
 
-	var lineX *plotter.Line
-	for _, xys := range []plotter.XYs{upper, lower} {
-		l, err := plotter.NewLine(xys)
-		if err != nil {
-			return nil, err
-		}
-		l.LineStyle = draw.LineStyle{Color: envelopeColor, Width: vg.Points(1.4)}
-		p.Add(l)
-		lineX = l
+	label := cfg.label
+	if label == "" && len(cfg.also) > 0 {
+		label = "beam"
 	}
+	xSty := draw.LineStyle{Color: envelopeColor, Width: vg.Points(1.4)}
+	ySty := draw.LineStyle{Color: yColor, Width: vg.Points(1.2), Dashes: []vg.Length{vg.Points(4), vg.Points(2)}}
+	for _, xys := range []plotter.XYs{upper, mirrored(upper)} {
+		if err := addLine(p, xys, xSty); err != nil {
+			return Figure{}, err
+		}
+	}
+	key.avoid = append(key.avoid, thin(upper, 200), thin(mirrored(upper), 200))
 	if astig {
-		var lineY *plotter.Line
-		for _, xys := range []plotter.XYs{upperY, lowerY} {
-			l, err := plotter.NewLine(xys)
-			if err != nil {
-				return nil, err
+		for _, xys := range []plotter.XYs{upperY, mirrored(upperY)} {
+			if err := addLine(p, xys, ySty); err != nil {
+				return Figure{}, err
 			}
-			l.LineStyle = draw.LineStyle{Color: yColor, Width: vg.Points(1.2), Dashes: []vg.Length{vg.Points(4), vg.Points(2)}}
-			p.Add(l)
-			lineY = l
 		}
-		p.Legend.Add("x (tangential)", lineX)
-		p.Legend.Add("y (sagittal)", lineY)
-		legend = true
+		key.avoid = append(key.avoid, thin(upperY, 200), thin(mirrored(upperY), 200))
+		key.entries = append(key.entries, keyEntry{text: layJoin(label, "x (tangential)"), line: xSty, fill: bandFill(cfg.band)},
+			keyEntry{text: layJoin(label, "y (sagittal)"), line: ySty})
+	} else if label != "" {
+		key.entries = append(key.entries, keyEntry{text: label, line: xSty, fill: bandFill(cfg.band)})
 	}
-	if legend {
-		// Put the key on the side where the beam is narrower.
-		q := n / 4
-		left, right := 0.0, 0.0
-		for i := range q {
-			left = math.Max(left, math.Max(upper[i].Y, upperY[i].Y))
-			right = math.Max(right, math.Max(upper[n-1-i].Y, upperY[n-1-i].Y))
+	for i, o := range overlays {
+		sty := overlayStyles[i%len(overlayStyles)]
+		up := o.xys(o.wx)
+		for _, xys := range []plotter.XYs{up, mirrored(up)} {
+			if err := addLine(p, xys, sty); err != nil {
+				return Figure{}, err
+			}
 		}
-		p.Legend.Left = left < right
-		p.Legend.Top = true
-		p.Legend.TextStyle.Font.Size = vg.Points(7.5)
-		p.Legend.TextStyle.Color = labelColor
-		p.Legend.ThumbnailWidth = vg.Points(18)
-		p.Legend.Padding = vg.Points(1)
+		key.avoid = append(key.avoid, thin(up, 200), thin(mirrored(up), 200))
+		name := cfg.also[i].label
+		if o.astigmatic() {
+			yst := sty
+			yst.Width = vg.Points(0.9)
+			yst.Dashes = []vg.Length{vg.Points(1.5), vg.Points(1.5)}
+			upY := o.xys(o.wy)
+			for _, xys := range []plotter.XYs{upY, mirrored(upY)} {
+				if err := addLine(p, xys, yst); err != nil {
+					return Figure{}, err
+				}
+			}
+			key.entries = append(key.entries, keyEntry{text: layJoin(name, "x"), line: sty}, keyEntry{text: layJoin(name, "y"), line: yst})
+		} else {
+			key.entries = append(key.entries, keyEntry{text: name, line: sty})
+		}
 	}
 
 	marks, err := NewMarks(sys, 1.15*wmax)
 	if err != nil {
-		return nil, err
+		return Figure{}, err
 	}
-	// Clipping results by element, when c knows its system and beam.
-	clips := map[int]beam.Clip{}
+	marks.scene = sc
+	// Clipping results by element (a slice in element order, not a map:
+	// the drawing must not depend on map order), when c knows its system
+	// and beam.
+	clips := make([]beam.Clip, sys.Len())
+	hasClip := make([]bool, sys.Len())
 	if cl, err := c.Clipping(cfg.minT); err == nil {
 		for _, k := range cl {
-			clips[k.Element] = k
+			if k.Element >= 0 && k.Element < len(clips) {
+				clips[k.Element], hasClip[k.Element] = k, true
+			}
 		}
 	}
-	for i := range marks.Marks {
-		mk := &marks.Marks[i]
+	clipped := func(i int) (beam.Clip, bool) {
+		if i >= 0 && i < len(clips) && hasClip[i] && clips[i].Low {
+			return clips[i], true
+		}
+		return beam.Clip{}, false
+	}
+	var omitted []string
+	visible := func(z float64) bool { return z >= lo && z <= hi }
+	var kept []Mark
+	for _, mk := range marks.Marks {
+		name := mk.Label
 		if !cfg.labels {
 			mk.Label = ""
 		}
-		if !mk.Stop {
-			continue
-		}
-		if k, ok := clips[mk.Element]; ok && k.Low {
-			mk.Clipped = true
-			if mk.Label != "" {
-				mk.Label += " · passes " + below(k.Transmission, k.MinTransmission)
+		if mk.Stop {
+			if k, ok := clipped(mk.Element); ok {
+				mk.Clipped = true
+				if mk.Label != "" {
+					mk.Label += " · passes " + below(k.Transmission, k.MinTransmission)
+				}
+			}
+			// A stop far outside the beam would only squash the
+			// envelope: draw a default-height bar instead, and say so.
+			if !mk.Clipped && mk.half() > farStop*wmax {
+				if visible(mk.Z) {
+					omitted = append(omitted, stopNote(name, sys.Element(mk.Element).Aperture))
+				}
+				mk.Stop, mk.Low, mk.High = false, -1.15*wmax, 1.15*wmax
 			}
 		}
-		// A stop far outside the beam would only squash the envelope:
-		// draw a default-height bar instead.
-		if !mk.Clipped && mk.half() > farStop*wmax {
-			mk.Stop, mk.Low, mk.High = false, -1.15*wmax, 1.15*wmax
-		}
+		kept = append(kept, mk)
 	}
+	marks.Marks = kept
 	tubes := marks.Tubes[:0]
 	for _, tb := range marks.Tubes {
-		if k, ok := clips[tb.Element]; ok && k.Low {
+		if _, ok := clipped(tb.Element); ok {
 			tb.Clipped = true
 		}
 		if !tb.Clipped && math.Max(math.Abs(tb.Low), math.Abs(tb.High)) > farStop*wmax {
+			if tb.Z1 >= lo && tb.Z0 <= hi {
+				omitted = append(omitted, stopNote(layJoin(tb.Label, "tube"), sys.Element(tb.Element).Aperture))
+			}
 			continue
 		}
 		tubes = append(tubes, tb)
@@ -292,27 +518,72 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (*plot.Plot, e
 	if len(marks.Marks)+len(marks.Tubes) > 0 {
 		p.Add(marks)
 	}
+	if len(omitted) > 0 {
+		key.notes = append(key.notes, "Not drawn, far outside the beam: "+strings.Join(omitted, ", ")+".")
+	}
 
-	var notes *waistNotes
 	if cfg.waists {
-		notes = newWaistNotes(c, astig, upper[0].X, upper[n-1].X)
+		notes := newWaistNotes(c, astig, lo, hi)
+		notes.scene = sc
 		if len(notes.notes) > 0 {
 			p.Add(notes)
 		}
 	}
+	if !key.empty() {
+		p.Add(key)
+	}
 	// Symmetric y range with head-room for the element labels above and
-	// the waist notes below.
+	// the waist notes below; more with a key.
 	room := 1.4
-	if legend {
+	if !key.empty() {
 		room = 1.7
 	}
-	ymax := room * math.Max(wmax, marks.maxHalfHeight())
+	ymax := room * math.Max(wmax, marks.maxHalfHeightIn(lo, hi))
 	p.Y.Min, p.Y.Max = -ymax, ymax
-	p.X.Min, p.X.Max = upper[0].X, upper[n-1].X
-	if p.X.Min == p.X.Max {
-		p.X.Max = p.X.Min + 1
+	p.X.Min, p.X.Max = lo, hi
+	return cfg.figure(p, causticCaption(cfg.title, c, astig)), nil
+}
+
+// bandFill returns the key's fill sample for the envelope band.
+func bandFill(on bool) color.Color {
+	if on {
+		return bandColor
 	}
-	return p, nil
+	return nil
+}
+
+// stopNote describes an opening that is not drawn: "L1 ⌀ 25.4 mm", or
+// "S slit 2 mm" for a slit.
+func stopNote(name string, o paraxial.Opening) string {
+	size := "⌀ " + o.Diameter().String()
+	if o.Shape == paraxial.Slit {
+		size = "slit " + o.Diameter().String()
+	}
+	return layJoin(name, size)
+}
+
+// causticCaption returns the title followed by the waists in the
+// sampled range.
+func causticCaption(title string, c beam.Caustic, astig bool) string {
+	var parts []string
+	add := func(fs []beam.Focus, plane string) {
+		for _, f := range fs {
+			if f.Z <= c.Z[0] { // the source, at the start of the path
+				continue
+			}
+			parts = append(parts, plane+"w₀ "+short(f.Radius)+" at z = "+f.Z.String())
+		}
+	}
+	if astig {
+		add(c.Foci, "x ")
+		add(c.FociY, "y ")
+	} else {
+		add(c.Foci, "")
+	}
+	if len(parts) == 0 {
+		return title
+	}
+	return title + ". Waists: " + strings.Join(parts, "; ") + "."
 }
 
 // below formats the transmitted fraction t < threshold as a percentage
@@ -347,6 +618,7 @@ type note struct {
 type waistNotes struct {
 	notes []note
 	style text.Style
+	scene *scene
 }
 
 var (
@@ -370,14 +642,18 @@ func (wn *waistNotes) Thumbnail(c *draw.Canvas) {
 	c.StrokeLine2(bar, x-d, c.Min.Y, x+d, c.Min.Y)
 }
 
+// newWaistNotes returns the notes of the waists of c inside (zmin, zmax)
+// mm; positions print with one decimal, more when the range is short.
 func newWaistNotes(c beam.Caustic, astig bool, zmin, zmax float64) *waistNotes {
 	wn := &waistNotes{style: text.Style{Color: labelColor, XAlign: draw.XCenter, YAlign: draw.YBottom, Handler: plot.DefaultTextHandler}}
+	dec := max(1, min(4, 2-int(math.Floor(math.Log10(zmax-zmin)))))
+	start := c.Z[0].Millimeters()
 	add := func(fs []beam.Focus, prefix string, y bool) {
 		for _, f := range fs {
 			z := f.Z.Millimeters()
 			// The input waist at the very start of the path is the
 			// source; it is described elsewhere and would clip.
-			if z <= zmin+1e-9*(zmax-zmin) || z >= zmax {
+			if z <= start+1e-9*(zmax-zmin) || z <= zmin || z >= zmax {
 				continue
 			}
 			// A waist just behind a lens placed at a waist repeats the
@@ -388,7 +664,7 @@ func newWaistNotes(c beam.Caustic, astig bool, zmin, zmax float64) *waistNotes {
 					continue
 				}
 			}
-			wn.notes = append(wn.notes, note{z: z, w0: f.Radius.Millimeters(), text: prefix + "w₀ " + short(f.Radius) + " @ " + strconv.FormatFloat(z, 'f', 1, 64) + " mm", y: y})
+			wn.notes = append(wn.notes, note{z: z, w0: f.Radius.Millimeters(), text: prefix + "w₀ " + short(f.Radius) + " @ " + strconv.FormatFloat(z, 'f', dec, 64) + " mm", y: y})
 		}
 	}
 	if astig {
@@ -434,8 +710,8 @@ func (wn *waistNotes) Plot(c draw.Canvas, plt *plot.Plot) {
 		// font, and glyphs such as ₀ taken from a fallback font.)
 		lx := x
 		margin := vg.Points(2) + 0.15*w
-		if lx-w/2 < c.Min.X+vg.Points(2) {
-			lx = c.Min.X + vg.Points(2) + w/2
+		if lx-w/2 < c.Min.X+margin {
+			lx = c.Min.X + margin + w/2
 		}
 		if lx+w/2 > c.Max.X-margin {
 			lx = c.Max.X - margin - w/2
@@ -453,27 +729,8 @@ func (wn *waistNotes) Plot(c draw.Canvas, plt *plot.Plot) {
 		s := sty
 		s.Color = col
 		c.FillText(s, vg.Point{X: lx, Y: y}, n.text)
+		wn.scene.take(vg.Rectangle{Min: vg.Point{X: lx - w/2, Y: y}, Max: vg.Point{X: lx + w/2, Y: y + lineH}})
 	}
-}
-
-// SVG renders p as an SVG document of the given size (for example
-// 16*vg.Centimeter by 9*vg.Centimeter). Rendering the same plot twice gives
-// identical bytes. It returns an error if a size is not positive and finite.
-//
-// It draws on a vgsvg canvas directly rather than through p.WriterTo, which
-// would link every gonum/plot back end (PDF, EPS, TeX, raster images) into
-// each notebook cell; the SVG bytes are the same.
-func SVG(p *plot.Plot, width, height vg.Length) ([]byte, error) {
-	if !(width > 0 && height > 0) || math.IsInf(float64(width), 0) || math.IsInf(float64(height), 0) {
-		return nil, fmt.Errorf("optplot: SVG size %v × %v: must be positive and finite", width, height)
-	}
-	c := vgsvg.NewWith(vgsvg.UseWH(width, height))
-	p.Draw(draw.New(c))
-	var buf bytes.Buffer
-	if _, err := c.WriteTo(&buf); err != nil {
-		return nil, err
-	}
-	return buf.Bytes(), nil
 }
 
 // short formats a length with three significant digits in µm below 1 mm

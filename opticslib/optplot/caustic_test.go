@@ -7,6 +7,7 @@ package optplot
 
 import (
 	"bytes"
+	"errors"
 	"flag"
 	"math"
 	"os"
@@ -14,7 +15,6 @@ import (
 	"strings"
 	"testing"
 
-	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/vg"
 
 	"github.com/beamnote/beamnote/opticslib/beam"
@@ -56,17 +56,17 @@ func expander(t testing.TB) (beam.Caustic, paraxial.System) {
 func render(t testing.TB) []byte {
 	t.Helper()
 	c, sys := expander(t)
-	p, err := Caustic(c, sys, Title("3× beam expander"))
+	f, err := Caustic(c, sys, Title("3× beam expander"))
 	if err != nil {
 		t.Fatalf("Caustic error: %v", err)
 	}
-	return mustSVG(t, p, 16*vg.Centimeter, 9*vg.Centimeter)
+	return mustSVG(t, f)
 }
 
-// mustSVG renders p with [SVG] and fails the test on error.
-func mustSVG(t testing.TB, p *plot.Plot, w, h vg.Length) []byte {
+// mustSVG renders f with [Figure.SVG] and fails the test on error.
+func mustSVG(t testing.TB, f Figure) []byte {
 	t.Helper()
-	svg, err := SVG(p, w, h)
+	svg, err := f.SVG()
 	if err != nil {
 		t.Fatalf("SVG error: %v", err)
 	}
@@ -76,6 +76,23 @@ func mustSVG(t testing.TB, p *plot.Plot, w, h vg.Length) []byte {
 // astigmatic returns a round beam through a cylindrical lens with a
 // too-small clear aperture and a spherical lens, rendered with a ray fan.
 func astigmatic(t testing.TB) []byte {
+	t.Helper()
+	c, sys := astigmaticCase(t)
+	f, err := Caustic(c, sys, Title("cylinder then lens"),
+		Rays(paraxial.Ray{Y: 0.8 * mm}, paraxial.Ray{Y: -0.8 * mm}, paraxial.Ray{Theta: 0.004}))
+	if err != nil {
+		t.Fatalf("Caustic error: %v", err)
+	}
+	return mustSVG(t, f)
+}
+
+// astigmaticCaustic returns the caustic of [astigmatic].
+func astigmaticCaustic(t testing.TB) beam.Caustic {
+	c, _ := astigmaticCase(t)
+	return c
+}
+
+func astigmaticCase(t testing.TB) (beam.Caustic, paraxial.System) {
 	t.Helper()
 	sys, err := paraxial.NewBuilder().
 		Space(30*mm).CylindricalLens(60*mm, paraxial.Tangential).Label("CX").Aperture(paraxial.ClearRadius(1.2 * mm)).
@@ -92,12 +109,7 @@ func astigmatic(t testing.TB) []byte {
 	if err != nil {
 		t.Fatalf("Sample error: %v", err)
 	}
-	p, err := Caustic(c, sys, Title("cylinder then lens"),
-		Rays(paraxial.Ray{Y: 0.8 * mm}, paraxial.Ray{Y: -0.8 * mm}, paraxial.Ray{Theta: 0.004}))
-	if err != nil {
-		t.Fatalf("Caustic error: %v", err)
-	}
-	return mustSVG(t, p, 16*vg.Centimeter, 9*vg.Centimeter)
+	return c, sys
 }
 
 func TestGoldenSVG(t *testing.T) {
@@ -111,6 +123,8 @@ func TestGoldenSVG(t *testing.T) {
 		{"caustic_expander.svg", render},
 		{"caustic_astigmatic.svg", astigmatic},
 		{"layout_relay.svg", relayLayout},
+		{"caustic_also.svg", alsoGolden},
+		{"alongz_irradiance.svg", irradianceGolden},
 	} {
 		a := test.render(t)
 		b := test.render(t)
@@ -150,19 +164,16 @@ func TestCausticAstigmaticContent(t *testing.T) {
 func TestCausticOptions(t *testing.T) {
 	c, sys := expander(t)
 	for _, bad := range []float64{0, -1, 1.5} {
-		if _, err := Caustic(c, sys, MinTransmission(bad)); err != ErrOption {
+		if _, err := Caustic(c, sys, MinTransmission(bad)); !errors.Is(err, ErrOption) {
 			t.Errorf("MinTransmission(%g): error = %v, want ErrOption", bad, err)
 		}
 	}
 	// A threshold of 100 % flags every aperture (T < 1 for a finite stop).
-	p, err := Caustic(c, sys, MinTransmission(1), WaistNotes(false), ElementLabels(true))
+	f, err := Caustic(c, sys, MinTransmission(1), WaistNotes(false), ElementLabels(true))
 	if err != nil {
 		t.Fatalf("Caustic error: %v", err)
 	}
-	svg, err := SVG(p, 16*vg.Centimeter, 9*vg.Centimeter)
-	if err != nil {
-		t.Fatalf("SVG error: %v", err)
-	}
+	svg := mustSVG(t, f)
 	if s := string(svg); !strings.Contains(s, "L1 · passes") || strings.Contains(s, "w₀") {
 		t.Errorf("with MinTransmission(1) and no waist notes the SVG should flag L1 and show no w₀ note")
 	}
@@ -190,7 +201,7 @@ func TestCausticErrors(t *testing.T) {
 		{"WY length", beam.Caustic{Z: []units.Length{0, 1}, W: []units.Length{1, 1}, WY: []units.Length{1}}},
 		{"WY Inf", beam.Caustic{Z: []units.Length{0, 1}, W: []units.Length{1, 1}, WY: []units.Length{1, units.Length(math.Inf(1))}}},
 	} {
-		if _, err := Caustic(test.c, sys); err != ErrCaustic {
+		if _, err := Caustic(test.c, sys); !errors.Is(err, ErrCaustic) {
 			t.Errorf("%s: Caustic error = %v, want ErrCaustic", test.name, err)
 		}
 	}
@@ -263,16 +274,37 @@ func TestMarksTubesAndTilt(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	p, err := Caustic(c, sys)
+	f, err := Caustic(c, sys, Size(12*vg.Centimeter, 6*vg.Centimeter))
 	if err != nil {
 		t.Fatal(err)
 	}
-	svg, err := SVG(p, 12*vg.Centimeter, 6*vg.Centimeter)
-	if err != nil {
-		t.Fatal(err)
-	}
+	svg := mustSVG(t, f)
 	// The clipping tube is drawn in the warning colour (#D23C1E).
 	if !strings.Contains(string(svg), "stroke:#D23C1E") {
 		t.Errorf("caustic of a clipping tube has no stroke in the warning colour")
 	}
+}
+
+// alsoGolden renders the expander with its what-if variant (L2 moved
+// 10 mm towards L1).
+func alsoGolden(t testing.TB) []byte {
+	t.Helper()
+	c, cm, sys := whatIf(t)
+	f, err := Caustic(c, sys, Title("3× expander, what if L2 moves"), Label("as designed"), Also("L2 −10 mm", cm))
+	if err != nil {
+		t.Fatalf("Caustic error: %v", err)
+	}
+	return mustSVG(t, f)
+}
+
+// irradianceGolden renders the on-axis peak irradiance of 20 mW through
+// the expander.
+func irradianceGolden(t testing.TB) []byte {
+	t.Helper()
+	c, _ := expander(t)
+	f, err := AlongZ(c, IrradianceFor(20e-3))
+	if err != nil {
+		t.Fatalf("AlongZ error: %v", err)
+	}
+	return mustSVG(t, f)
 }

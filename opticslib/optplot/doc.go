@@ -2,6 +2,22 @@
 // only package of the library that imports gonum/plot; the physics packages
 // (units, paraxial, beam) do not depend on it.
 //
+// # Figures
+//
+// Every figure function returns a [Figure]: the finished plot, its size
+// (default 16 cm × 9 cm) and a caption. A notebook cell makes one in one
+// call and the notebook layer renders it with [Figure.SVG], showing
+// [Figure.String] (the caption) where no image can be shown;
+// [Figure.Save] writes SVG, PNG or PDF by the file's extension.
+//
+//   - [Caustic]: the beam envelope ±w(z) with the elements, stops and
+//     waists; [ZRange] and [Zoom] choose the range, [Also] overlays
+//     what-if variants.
+//   - [AlongZ]: any per-z quantity against z ([BeamRadius],
+//     [WavefrontCurvature], [Ellipticity], [IrradianceFor], [GouyPhase]).
+//   - [Lines]: a line figure of [Series], for what-if sweeps.
+//   - [Layout]: a to-scale drawing of the system with ray fans.
+//
 // # Units
 //
 // Data arrive in metres (the library's internal unit) and are plotted in
@@ -18,9 +34,16 @@
 // plain bars in a second colour. A clear aperture shows as a pair of short
 // stops at ±a; stops that pass less than the threshold are heavier and
 // vermilion, and the element label then states the transmitted fraction.
-// When the beam differs in x and y, the y (sagittal) envelope is drawn
-// dashed in brick red and a small key appears on the side where the beam
-// is narrower. Every real waist gets short bars at ±w0 and a dotted leader
+// Cylindrical lenses are two thin parallel bars with the same end marks
+// and the letter of their power plane (x or y) beside the top end; an
+// unlabelled one is labelled "fx 60 mm" or "fy -50 mm". When the beam
+// differs in x and y, the y (sagittal) envelope is drawn dashed in brick
+// red. A key, on a pale backing, goes in the corner of the data area
+// where it covers the fewest labels and beam lines; stops left out
+// because they lie far outside the beam are listed in it with their
+// clear diameter. Element labels are moved inwards at the edges and up a
+// row where they would overlap. Tick labels step 1–2–5 and carry as many
+// decimals as the step needs, so adjacent labels always differ. Every real waist gets short bars at ±w0 and a dotted leader
 // down to a one-line note "w₀ 16.9 µm @ 99.9 mm" along the bottom of the
 // plot; notes that would overlap move up a row. An optional paraxial ray
 // fan ([Rays]) is drawn in thin translucent slate violet. The palette
@@ -39,13 +62,22 @@
 //
 // Rendering the same input twice gives byte-identical SVG: the package
 // iterates only over slices, and gonum/plot's SVG back end writes numbers
-// with fixed precision. The package never modifies gonum/plot's
+// with fixed precision. (PNG and PDF files are not claimed to be
+// byte-identical.) The package never modifies gonum/plot's
 // package-level defaults (plotter.Default*); every style is set on the
 // plotters it creates, so concurrent notebook cells do not interfere.
 //
 // # Errors and panics
 //
-// [Caustic] returns an error for empty or inconsistent data and for
-// non-finite values; [SVG] returns rendering errors. Nothing panics on user
-// data, and arguments are not modified.
+// Errors are [*ParamError] values in the library's one format ("optplot:
+// Zoom: half width = -1 mm: must be positive and finite"), wrapping a
+// sentinel ([ErrOption], [ErrCaustic], [ErrSeries], [ErrLayout],
+// [ErrFanLines], [ErrFigure]) for errors.Is. Nothing panics on user data,
+// and arguments are not modified.
+//
+// # Laser safety
+//
+// A figure that shows irradiance ([IrradianceFor]) carries a short
+// laser-safety caution in its key, deferring to local rules and the laser
+// safety officer, and its caption ends with [beam.SafetyNote] in full.
 package optplot

@@ -24,8 +24,8 @@ var layFanColors = []color.NRGBA{
 	{R: 0xa4, G: 0x52, B: 0x3f, A: 0xff},
 }
 
-// ErrFanLines is returned by [NewFanLines] for a ray with a non-finite position
-// or height.
+// ErrFanLines is wrapped by the error of [NewFanLines] for a ray with a
+// non-finite position or height.
 var ErrFanLines = errors.New("optplot: ray fan contains a non-finite position or height")
 
 // FanPaths is one fan prepared for drawing, in mm.
@@ -70,20 +70,22 @@ func layFanLabel(f paraxial.Fan) string {
 }
 
 // NewFanLines converts traced fans to a [FanLines] plotter. Each ray is drawn up
-// to and including the first step flagged Blocked. It returns [ErrFanLines] if
-// a position or height is not finite.
+// to and including the first step flagged Blocked. It returns a
+// [*ParamError] wrapping [ErrFanLines] if a position or height is not
+// finite.
 func NewFanLines(fans []paraxial.Fan) (*FanLines, error) {
 	r := &FanLines{Width: vg.Points(0.7)}
-	for _, f := range fans {
+	for fi, f := range fans {
 		fp := FanPaths{Label: layFanLabel(f)}
-		for _, steps := range f.Rays {
+		for ri, steps := range f.Rays {
 			xy := make(plotter.XYs, 0, len(steps))
 			el := make([]int, 0, len(steps))
 			blocked := false
 			for _, s := range steps {
 				z, y := s.Z.Millimeters(), s.Ray.Y.Millimeters()
 				if !layFinite(z, y) {
-					return nil, ErrFanLines
+					return nil, &ParamError{Func: "NewFanLines", Param: "fan " + strconv.Itoa(fi+1) + " ray " + strconv.Itoa(ri+1) + " step (z, y)",
+						Value: s.Z.String() + ", " + s.Ray.Y.String(), Reason: "must be finite", Err: ErrFanLines}
 				}
 				xy = append(xy, plotter.XY{X: z, Y: y})
 				el = append(el, s.Element)

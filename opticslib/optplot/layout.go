@@ -44,22 +44,69 @@ type layoutConfig struct {
 	halfHeight float64 // mm; 0 means automatic
 	stops      *paraxial.Stops
 	labels     bool
+	width      vg.Length
+	height     vg.Length
+	caption    string
+	captionSet bool
+	err        error
+}
+
+// fail records the first bad option.
+func (c *layoutConfig) fail(fn, param string, v any, reason string) {
+	if c.err == nil {
+		c.err = &ParamError{Func: fn, Param: param, Value: v, Reason: reason, Err: ErrLayout}
+	}
+}
+
+// LayoutSize sets the figure's width and height (vg units, each
+// positive, finite and at most 200 cm). The default is [DefaultWidth] ×
+// [DefaultHeight].
+func LayoutSize(w, h vg.Length) LayoutOption {
+	return func(c *layoutConfig) {
+		for _, d := range []struct {
+			name string
+			v    vg.Length
+		}{{"width", w}, {"height", h}} {
+			if checkSize("LayoutSize", d.name, d.v) != nil {
+				c.fail("LayoutSize", d.name, cm(d.v), "must be positive, finite and at most 200 cm")
+				return
+			}
+		}
+		c.width, c.height = w, h
+	}
+}
+
+// LayoutCaption sets the figure's caption (default: the title).
+func LayoutCaption(s string) LayoutOption {
+	return func(c *layoutConfig) { c.caption, c.captionSet = s, true }
 }
 
 // LayoutTitle sets the title of the layout plot (default "System layout").
 func LayoutTitle(s string) LayoutOption { return func(c *layoutConfig) { c.title = s } }
 
-// LayoutRange sets the axial range drawn, from z0 to z1 (metres, z0 < z1).
-// The default spans the system and every ray of the fans.
+// LayoutRange sets the axial range drawn, from z0 to z1 (metres, finite,
+// z0 < z1). The default spans the system and every ray of the fans.
 func LayoutRange(z0, z1 units.Length) LayoutOption {
-	return func(c *layoutConfig) { c.z0, c.z1 = z0.Millimeters(), z1.Millimeters() }
+	return func(c *layoutConfig) {
+		if !finite(float64(z0)) || !finite(float64(z1)) || !(z0 < z1) {
+			c.fail("LayoutRange", "range z0 … z1", z0.String()+" … "+z1.String(), "must be finite with z0 < z1")
+			return
+		}
+		c.z0, c.z1 = z0.Millimeters(), z1.Millimeters()
+	}
 }
 
 // LayoutHalfHeight sets the semi-diameter (metres, > 0) drawn for
 // elements without a clear aperture. The default is 1.2 times the largest
 // ray height of the fans at the element, or 10 mm without fans.
 func LayoutHalfHeight(h units.Length) LayoutOption {
-	return func(c *layoutConfig) { c.halfHeight = h.Millimeters() }
+	return func(c *layoutConfig) {
+		if !(h > 0) || !finite(float64(h)) {
+			c.fail("LayoutHalfHeight", "half height", h.String(), "must be positive and finite")
+			return
+		}
+		c.halfHeight = h.Millimeters()
+	}
 }
 
 // LayoutStops marks the aperture stop and the pupils found by
@@ -71,8 +118,8 @@ func LayoutStops(a paraxial.Stops) LayoutOption {
 // LayoutLabels controls the element labels under the drawing (default on).
 func LayoutLabels(on bool) LayoutOption { return func(c *layoutConfig) { c.labels = on } }
 
-// ErrLayout is returned by [Layout] and [NewOutline] for an empty system,
-// a bad range or a bad half height.
+// ErrLayout is wrapped by the errors of [Layout] and [NewOutline] for an
+// empty system, a bad range or a bad half height.
 var ErrLayout = errors.New("optplot: layout needs a non-empty system, a finite range z0 < z1 and a positive finite half height")
 
 // Layout returns a to-scale drawing of sys with the ray fans traced
@@ -81,34 +128,35 @@ var ErrLayout = errors.New("optplot: layout needs a non-empty system, a finite r
 // diaphragms, and, with [LayoutStops], the stop and pupils. Both axes
 // are in millimetres; because optical systems are long and thin, the
 // vertical scale is usually stretched, and the drawing states the factor
-// in its lower left corner.
+// in its lower left corner. Cylindrical lenses are drawn with a dashed
+// outline and labelled "cyl x" or "cyl y" for their power plane. The
+// figure is [DefaultWidth] × [DefaultHeight] unless [LayoutSize] says
+// otherwise; its caption is the title unless [LayoutCaption] says
+// otherwise.
 //
-// It returns [ErrLayout] for an empty system or bad options, and the
-// errors of [NewFanLines] for bad fans.
-func Layout(sys paraxial.System, fans []paraxial.Fan, opts ...LayoutOption) (*plot.Plot, error) {
+// It returns a [*ParamError] wrapping [ErrLayout] for an empty system or
+// bad options, and one wrapping [ErrFanLines] for bad fans.
+func Layout(sys paraxial.System, fans []paraxial.Fan, opts ...LayoutOption) (Figure, error) {
 	cfg := layoutConfig{title: "System layout", labels: true}
 	for _, o := range opts {
-		o(&cfg)
+		if o != nil {
+			o(&cfg)
+		}
+	}
+	if cfg.err != nil {
+		return Figure{}, cfg.err
 	}
 	rays, err := NewFanLines(fans)
 	if err != nil {
-		return nil, err
+		return Figure{}, err
 	}
 	out, err := newOutline(sys, rays, cfg)
 	if err != nil {
-		return nil, err
+		return Figure{}, err
 	}
-	p := plot.New()
-	p.Title.Text = cfg.title
-	p.X.Label.Text = LayoutXLabel
-	p.Y.Label.Text = LayoutYLabel
-	for _, s := range []*text.Style{&p.Title.TextStyle, &p.X.Label.TextStyle, &p.Y.Label.TextStyle} {
-		s.Color = labelColor
-	}
-	p.X.LineStyle.Color, p.Y.LineStyle.Color = axisColor, axisColor
-	p.X.Tick.LineStyle.Color, p.Y.Tick.LineStyle.Color = axisColor, axisColor
-	p.X.Tick.Marker = layTicks{}
-	p.Y.Tick.Marker = layTicks{}
+	p := newPlot(cfg.title, LayoutXLabel, LayoutYLabel)
+	p.X.Tick.Marker = niceTicks{target: 6}
+	p.Y.Tick.Marker = niceTicks{target: 6}
 	p.Add(out)
 	if len(rays.Fans) > 0 {
 		p.Add(rays)
@@ -143,7 +191,14 @@ func Layout(sys paraxial.System, fans []paraxial.Fan, opts ...LayoutOption) (*pl
 	p.X.Min, p.X.Max = xmin, xmax
 	p.Y.Min, p.Y.Max = -1.75*ym, 1.45*ym
 	out.xmin, out.xmax = xmin, xmax
-	return p, nil
+	f := newFigure(p)
+	if cfg.width > 0 {
+		f.Width, f.Height = cfg.width, cfg.height
+	}
+	if cfg.captionSet {
+		f.Caption = cfg.caption
+	}
+	return f, nil
 }
 
 // Outline is a plotter that draws the elements of a system to scale, in
@@ -202,7 +257,7 @@ var (
 func NewOutline(sys paraxial.System, halfHeight units.Length) (*Outline, error) {
 	h := halfHeight.Millimeters()
 	if !(h > 0) || math.IsInf(h, 0) {
-		return nil, ErrLayout
+		return nil, &ParamError{Func: "NewOutline", Param: "half height", Value: halfHeight.String(), Reason: "must be positive and finite", Err: ErrLayout}
 	}
 	return newOutline(sys, &FanLines{}, layoutConfig{halfHeight: h, labels: true})
 }
@@ -217,8 +272,8 @@ func layFinite(v ...float64) bool {
 }
 
 func newOutline(sys paraxial.System, rays *FanLines, cfg layoutConfig) (*Outline, error) {
-	if sys.Len() == 0 || (cfg.z0 != cfg.z1 && !(cfg.z0 < cfg.z1)) || !layFinite(cfg.z0, cfg.z1) || cfg.halfHeight < 0 || !layFinite(cfg.halfHeight) {
-		return nil, ErrLayout
+	if sys.Len() == 0 {
+		return nil, &ParamError{Func: "Layout", Param: "system elements", Value: sys.Len(), Reason: "need a built, non-empty system", Err: ErrLayout}
 	}
 	elems := sys.Elements()
 	stop := -1
@@ -310,7 +365,7 @@ func newOutline(sys paraxial.System, rays *FanLines, cfg layoutConfig) (*Outline
 				part.Label = layJoin(part.Label, strconv.FormatFloat(e.Tilt.Degrees(), 'f', 0, 64)+"°")
 			}
 		case paraxial.KindCylindricalLens:
-			part.Label = layJoin(part.Label, "cyl "+e.Plane.String()[:1])
+			part.Label = layJoin(part.Label, "cyl "+planeLetter(e.Plane))
 		case paraxial.KindSpace, paraxial.KindThinLens, paraxial.KindPlanarInterface, paraxial.KindMatrix,
 			paraxial.KindThickLens, paraxial.KindPlate, paraxial.KindDiaphragm:
 		}
@@ -328,7 +383,7 @@ func newOutline(sys paraxial.System, rays *FanLines, cfg layoutConfig) (*Outline
 	}
 	for _, pt := range o.Parts {
 		if !layFinite(pt.Z, pt.Length, pt.HalfHeight) {
-			return nil, ErrLayout
+			return nil, &ParamError{Func: "Layout", Param: "part " + strconv.Quote(pt.Label) + " position", Value: strconv.FormatFloat(pt.Z, 'g', -1, 64) + " mm", Reason: "must be finite", Err: ErrLayout}
 		}
 	}
 	// Draw and label in axial order (stable, so equal positions keep the
@@ -563,39 +618,4 @@ func (o *Outline) Thumbnail(c *draw.Canvas) {
 	sil := laySilhouette(x, c.Max.Y, c.Min.Y, true)
 	c.FillPolygon(layGlassFill, sil)
 	c.StrokeLines(draw.LineStyle{Color: layGlassEdge, Width: vg.Points(0.8)}, append(sil, sil[0]))
-}
-
-// layTicks places labelled ticks at a 1–2–5 step giving about six labels,
-// with four minor ticks between (unlabelled).
-type layTicks struct{}
-
-// Ticks implements plot.Ticker.
-func (layTicks) Ticks(lo, hi float64) []plot.Tick {
-	if !(hi > lo) || !layFinite(lo, hi) {
-		return nil
-	}
-	raw := (hi - lo) / 6
-	mag := math.Pow(10, math.Floor(math.Log10(raw)))
-	step := mag
-	for _, m := range []float64{1, 2, 5, 10} {
-		if m*mag >= raw {
-			step = m * mag
-			break
-		}
-	}
-	minor := step / 5
-	var ticks []plot.Tick
-	for k := math.Ceil(lo / minor); k*minor <= hi; k++ {
-		v := k * minor
-		t := plot.Tick{Value: v}
-		if r := math.Round(v / step); math.Abs(v/step-r) < 1e-9 {
-			t.Value = r * step
-			t.Label = strconv.FormatFloat(t.Value, 'f', -1, 64)
-			if t.Value == 0 {
-				t.Label = "0"
-			}
-		}
-		ticks = append(ticks, t)
-	}
-	return ticks
 }

@@ -42,12 +42,13 @@ func ExampleLayout() {
 		}
 		fans = append(fans, f)
 	}
-	p, err := optplot.Layout(sys, fans, optplot.LayoutStops(a), optplot.LayoutTitle("2× relay"))
+	f, err := optplot.Layout(sys, fans, optplot.LayoutStops(a), optplot.LayoutTitle("2× relay"),
+		optplot.LayoutSize(16*vg.Centimeter, 8*vg.Centimeter))
 	if err != nil {
 		fmt.Println(err)
 		return
 	}
-	svg, err := optplot.SVG(p, 16*vg.Centimeter, 8*vg.Centimeter)
+	svg, err := f.SVG()
 	if err != nil {
 		fmt.Println(err)
 		return

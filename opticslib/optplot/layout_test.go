@@ -5,6 +5,7 @@ package optplot
 // whose optics is tested in package paraxial against textbook references.
 
 import (
+	"errors"
 	"math"
 	"strings"
 	"testing"
@@ -46,11 +47,11 @@ func relayLayout(t testing.TB) []byte {
 		}
 		fans = append(fans, f)
 	}
-	p, err := Layout(sys, fans, LayoutStops(a), LayoutTitle("4f relay"))
+	f, err := Layout(sys, fans, LayoutStops(a), LayoutTitle("4f relay"), LayoutSize(16*vg.Centimeter, 8*vg.Centimeter))
 	if err != nil {
 		t.Fatalf("Layout: %v", err)
 	}
-	return mustSVG(t, p, 16*vg.Centimeter, 8*vg.Centimeter)
+	return mustSVG(t, f)
 }
 
 func TestLayoutContent(t *testing.T) {
@@ -113,20 +114,20 @@ func TestLayoutErrors(t *testing.T) {
 		{"NaN half height", sys, nil, []LayoutOption{LayoutHalfHeight(units.Length(math.NaN()))}, ErrLayout},
 		{"NaN ray", sys, []paraxial.Fan{bad}, nil, ErrFanLines},
 	} {
-		if _, err := Layout(test.sys, test.fans, test.opts...); err != test.want {
+		if _, err := Layout(test.sys, test.fans, test.opts...); !errors.Is(err, test.want) {
 			t.Errorf("%s: Layout error = %v, want %v", test.name, err, test.want)
 		}
 	}
-	if _, err := NewOutline(sys, 0); err != ErrLayout {
+	if _, err := NewOutline(sys, 0); !errors.Is(err, ErrLayout) {
 		t.Errorf("NewOutline(0) error = %v, want ErrLayout", err)
 	}
 }
 
-func TestLayTicks(t *testing.T) {
+func TestLayoutTicks(t *testing.T) {
 	// 1–2–5 steps for about six labels: −15…386 mm gives a raw step of
 	// 66.8 mm, rounded up to 100 mm.
 	var labels []string
-	for _, tk := range (layTicks{}).Ticks(-15, 386) {
+	for _, tk := range (niceTicks{target: 6}).Ticks(-15, 386) {
 		if tk.Label != "" {
 			labels = append(labels, tk.Label)
 		}

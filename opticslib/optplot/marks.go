@@ -42,8 +42,11 @@ type Mark struct {
 	Low, High float64
 	// Kind is the element type.
 	Kind paraxial.Kind
-	// Converging is true for a thin lens with f > 0.
+	// Converging is true for a thin or cylindrical lens with f > 0.
 	Converging bool
+	// Plane is the plane in which a cylindrical lens has power (its mark
+	// carries the letter x for Tangential or y for Sagittal).
+	Plane paraxial.Plane
 	// Label is drawn above the bar.
 	Label string
 	// Stop is true when the element has a clear aperture that limits x;
@@ -84,6 +87,8 @@ type Marks struct {
 	// Label is the style of the labels; a zero Font size means 8 pt in
 	// the plot's default font.
 	Label text.Style
+
+	scene *scene // labels drawn, for the key to avoid (Caustic sets it)
 }
 
 var (
@@ -124,7 +129,7 @@ func NewMarks(sys paraxial.System, halfHeight float64) (*Marks, error) {
 			}
 			continue
 		}
-		mk := Mark{Element: pc.Element, Z: e.Z.Millimeters(), Low: -halfHeight, High: halfHeight, Kind: e.Kind, Label: e.Label, Converging: e.Focal > 0}
+		mk := Mark{Element: pc.Element, Z: e.Z.Millimeters(), Low: -halfHeight, High: halfHeight, Kind: e.Kind, Label: e.Label, Converging: e.Focal > 0, Plane: e.Plane}
 		if limited {
 			mk.Low, mk.High, mk.Stop = lo, hi, true
 		}
@@ -143,25 +148,35 @@ func defaultLabel(e paraxial.Element) string {
 	switch e.Kind {
 	case paraxial.KindThinLens:
 		return "f " + units.Length(e.Focal).String()
+	case paraxial.KindCylindricalLens:
+		return "f" + planeLetter(e.Plane) + " " + units.Length(e.Focal).String()
 	case paraxial.KindSphericalInterface:
 		return "R " + units.Length(e.Radius).String()
 	case paraxial.KindPlanarInterface:
 		return "flat"
-	case paraxial.KindSpace:
+	case paraxial.KindSpace, paraxial.KindMirror, paraxial.KindMatrix, paraxial.KindThickLens,
+		paraxial.KindPlate, paraxial.KindDiaphragm:
 	}
 	return ""
 }
 
-// Plot implements plot.Plotter.
+// planeLetter returns "x" for the tangential and "y" for the sagittal
+// plane.
+func planeLetter(p paraxial.Plane) string {
+	if p == paraxial.Sagittal {
+		return "y"
+	}
+	return "x"
+}
+
+// Plot implements plot.Plotter. Labels stay inside the data area: a label
+// near an edge is moved inwards, and one that would overlap another label
+// goes up a row (the first row where it fits).
 func (m *Marks) Plot(c draw.Canvas, plt *plot.Plot) {
 	trX, trY := plt.Transforms(&c)
 	lbl := withFont(m.Label, plt, 8)
 	head := vg.Points(4)
 	lineHeight := lbl.FontExtents().Height
-	var (
-		haveLast         bool
-		lastRight, lastY vg.Length
-	)
 	for _, tb := range m.Tubes {
 		// Tubes: thin lines along the gap at the edges of the opening.
 		st := draw.LineStyle{Color: stopColor, Width: vg.Points(0.9)}
@@ -170,9 +185,11 @@ func (m *Marks) Plot(c draw.Canvas, plt *plot.Plot) {
 		}
 		x0, x1 := trX(tb.Z0), trX(tb.Z1)
 		for _, y := range []float64{tb.Low, tb.High} {
-			c.StrokeLine2(st, x0, trY(y), x1, trY(y))
+			c.StrokeLines(st, c.ClipLinesX([]vg.Point{{X: x0, Y: trY(y)}, {X: x1, Y: trY(y)}})...)
 		}
 	}
+	type placed struct{ left, right, y vg.Length }
+	var done []placed
 	for _, mk := range m.Marks {
 		x := trX(mk.Z)
 		if !c.ContainsX(x) {
@@ -180,11 +197,33 @@ func (m *Marks) Plot(c draw.Canvas, plt *plot.Plot) {
 		}
 		top, bot := trY(mk.High), trY(mk.Low)
 		sty := m.LineStyle
-		if mk.Kind != paraxial.KindThinLens {
+		lens := mk.Kind == paraxial.KindThinLens || mk.Kind == paraxial.KindCylindricalLens
+		if !lens {
 			sty.Color = m.InterfaceColor
 		}
-		c.StrokeLine2(sty, x, bot, x, top)
-		if mk.Kind == paraxial.KindThinLens {
+		if mk.Kind == paraxial.KindCylindricalLens {
+			// A cylindrical lens: two thin parallel bars (the flat and
+			// the curved face seen edge-on) and the letter of its power
+			// plane beside the top end.
+			thinSty := sty
+			thinSty.Width = sty.Width * 0.55
+			d := vg.Points(1.3)
+			c.StrokeLine2(thinSty, x-d, bot, x-d, top)
+			c.StrokeLine2(thinSty, x+d, bot, x+d, top)
+			tag := lbl
+			tag.Color = sty.Color
+			tag.XAlign, tag.YAlign = draw.XLeft, draw.YCenter
+			off := head
+			if mk.Stop {
+				off = vg.Points(7) // beyond the jaws
+			}
+			tp := vg.Point{X: x + off + vg.Points(2), Y: top}
+			c.FillText(tag, tp, planeLetter(mk.Plane))
+			m.scene.take(vg.Rectangle{Min: vg.Point{X: tp.X, Y: tp.Y - lineHeight/2}, Max: vg.Point{X: tp.X + tag.Width("x"), Y: tp.Y + lineHeight/2}})
+		} else {
+			c.StrokeLine2(sty, x, bot, x, top)
+		}
+		if lens {
 			// End marks: a converging lens opens outwards (a "diamond"
 			// silhouette), a diverging lens inwards.
 			d := head
@@ -209,21 +248,36 @@ func (m *Marks) Plot(c draw.Canvas, plt *plot.Plot) {
 			c.StrokeLine2(st, x-jaw, top, x+jaw, top)
 			c.StrokeLine2(st, x-jaw, bot, x+jaw, bot)
 		}
-		if mk.Label != "" {
-			// Raise a label by one line when it would overlap the
-			// previous one (elements close together).
-			w := lbl.Width(mk.Label)
-			y := top + head + vg.Points(1)
-			if haveLast && x-w/2 < lastRight+vg.Points(2) && y <= lastY+lineHeight {
-				y = lastY + lineHeight
-			}
-			l := lbl
-			if mk.Clipped {
-				l.Color = warnColor
-			}
-			c.FillText(l, vg.Point{X: x, Y: y}, mk.Label)
-			haveLast, lastRight, lastY = true, x+w/2, y
+		m.scene.take(vg.Rectangle{Min: vg.Point{X: x - head, Y: bot - head}, Max: vg.Point{X: x + head, Y: top + head}})
+		if mk.Label == "" {
+			continue
 		}
+		// Keep the label inside the data area horizontally (with 10 %
+		// of its width to spare for renderers that substitute a wider
+		// font), then take the lowest row where it overlaps no label
+		// drawn so far.
+		w := lbl.Width(mk.Label)
+		spare := 0.1*w + vg.Points(1)
+		lx := min(max(x, c.Min.X+w/2+spare), c.Max.X-w/2-spare)
+		y := top + head + vg.Points(1)
+		for moved := true; moved; {
+			moved = false
+			for _, p := range done {
+				if lx-w/2 < p.right+vg.Points(2) && lx+w/2 > p.left-vg.Points(2) && y < p.y+lineHeight && y+lineHeight > p.y {
+					y, moved = p.y+lineHeight, true
+				}
+			}
+		}
+		// Never above the data area: the label then sits on the bar.
+		y = min(y, c.Max.Y-lineHeight)
+		l := lbl
+		l.XAlign = draw.XCenter
+		if mk.Clipped {
+			l.Color = warnColor
+		}
+		c.FillText(l, vg.Point{X: lx, Y: y}, mk.Label)
+		done = append(done, placed{left: lx - w/2, right: lx + w/2, y: y})
+		m.scene.take(vg.Rectangle{Min: vg.Point{X: lx - w/2, Y: y}, Max: vg.Point{X: lx + w/2, Y: y + lineHeight}})
 	}
 }
 
@@ -279,15 +333,19 @@ func (m *Marks) Thumbnail(c *draw.Canvas) {
 	c.StrokeLine2(m.LineStyle, x, c.Min.Y, x, c.Max.Y)
 }
 
-// maxHalfHeight returns the largest bar half-height in mm (0 without
-// marks).
-func (m *Marks) maxHalfHeight() float64 {
+// maxHalfHeightIn returns the largest bar half-height in mm of the marks
+// and tubes inside [lo, hi] mm (0 without any).
+func (m *Marks) maxHalfHeightIn(lo, hi float64) float64 {
 	h := 0.0
 	for _, mk := range m.Marks {
-		h = math.Max(h, mk.half())
+		if mk.Z >= lo && mk.Z <= hi {
+			h = math.Max(h, mk.half())
+		}
 	}
 	for _, tb := range m.Tubes {
-		h = math.Max(h, math.Max(math.Abs(tb.Low), math.Abs(tb.High)))
+		if tb.Z1 >= lo && tb.Z0 <= hi {
+			h = math.Max(h, math.Max(math.Abs(tb.Low), math.Abs(tb.High)))
+		}
 	}
 	return h
 }

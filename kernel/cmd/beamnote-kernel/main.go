@@ -4,13 +4,16 @@
 //
 // Usage:
 //
-//	beamnote-kernel install [-user] [-nowarm]   build tools, write the kernelspec, warm the cache
+//	beamnote-kernel install [-user] [-nowarm]   build gonb, goimports, gopls, write the kernelspec, warm the cache
 //	beamnote-kernel warm                        warm the Go build cache only
 //	beamnote-kernel doctor [-user]              list what is missing, with the fix for each
 //	beamnote-kernel serve [-user] [-ip A] [-port P]
 //	                                            start Jupyter Notebook on notebooks/ with a token
 //	beamnote-kernel test [-user] [-out DIR] NB.ipynb...
-//	                                            execute notebooks headless and check their outputs
+//	                                            execute notebooks headless and check their outputs:
+//	                                            fails on a cell that does not compile, crashes,
+//	                                            exits nonzero or prints a line starting "error:",
+//	                                            and on a missing figure
 //
 // Run it from anywhere inside the checkout, usually through the Makefile.
 package main

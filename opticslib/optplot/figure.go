@@ -1,0 +1,251 @@
+package optplot
+
+import (
+	"bytes"
+	"errors"
+	"math"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+	"gonum.org/v1/plot/vg/vgimg"
+	"gonum.org/v1/plot/vg/vgpdf"
+	"gonum.org/v1/plot/vg/vgsvg"
+
+	"github.com/beamnote/beamnote/opticslib/internal/errtext"
+)
+
+// Default size of a [Figure]: 16 cm × 9 cm, a notebook cell's width.
+const (
+	DefaultWidth  = 16 * vg.Centimeter
+	DefaultHeight = 9 * vg.Centimeter
+)
+
+// PNGDPI is the resolution, in dots per inch, of the PNG files that
+// [Figure.Save] writes: a 16 cm figure is 1260 pixels wide.
+const PNGDPI = 200
+
+// Figure is a finished figure: the plot, the size it is drawn at and a
+// caption. Every figure function of the package ([Caustic], [AlongZ],
+// [Lines], [Layout]) returns one; the notebook layer renders it with
+// [Figure.SVG] and shows [Figure.String] where no image can be shown.
+//
+// A Figure made by hand, Figure{Plot: p}, is valid too: a zero Width or
+// Height means [DefaultWidth] or [DefaultHeight], and an empty Caption
+// means the plot's title. The Plot is shared, not copied: changing it
+// changes the figure.
+type Figure struct {
+	// Plot is the gonum/plot plot drawn.
+	Plot *plot.Plot
+	// Width and Height are the size of the drawing (vg units: 1 pt =
+	// 1/72 in; write 16*vg.Centimeter).
+	Width, Height vg.Length
+	// Caption is a one-paragraph description of the figure, the text
+	// shown instead of it outside notebooks. Figures that show
+	// irradiance carry the laser-safety note in it.
+	Caption string
+}
+
+// ParamError is the error of a figure function or option given a bad
+// value. Its message follows the library's one format,
+//
+//	optplot: Func: parameter = value unit: reason
+//
+// for example "optplot: Zoom: half width = -1 mm: must be positive and
+// finite". It wraps one of the sentinels [ErrOption], [ErrCaustic],
+// [ErrSeries], [ErrLayout], [ErrFanLines] or [ErrFigure], so callers test
+// with errors.Is.
+type ParamError struct {
+	// Func names the function or option, for example "Zoom".
+	Func string
+	// Param names the parameter, for example "half width".
+	Param string
+	// Value is the offending value: a units.Length (printed with its
+	// unit), a float64, an int or a string; nil when there is none.
+	Value any
+	// Reason states the requirement the value fails.
+	Reason string
+	// Err is the wrapped sentinel.
+	Err error
+}
+
+// Error implements the error interface.
+func (e *ParamError) Error() string {
+	return errtext.Message("optplot", e.Func, e.Param, e.Value, e.Reason, nil)
+}
+
+// Unwrap returns e.Err.
+func (e *ParamError) Unwrap() error { return e.Err }
+
+// ErrFigure is wrapped by the errors of [Figure.SVG] and [Figure.Save]:
+// no plot, a bad size, an unknown file extension.
+var ErrFigure = errors.New("optplot: cannot render figure")
+
+// newFigure returns the figure of p with the default size and p's title
+// as caption.
+func newFigure(p *plot.Plot) Figure {
+	return Figure{Plot: p, Width: DefaultWidth, Height: DefaultHeight, Caption: p.Title.Text}
+}
+
+// size returns the figure's size with the defaults applied, or an error
+// naming the bad dimension in cm.
+func (f Figure) size(fn string) (w, h vg.Length, err error) {
+	if f.Plot == nil {
+		return 0, 0, &ParamError{Func: fn, Param: "Plot", Reason: "is nil", Err: ErrFigure}
+	}
+	w, h = f.Width, f.Height
+	if w == 0 {
+		w = DefaultWidth
+	}
+	if h == 0 {
+		h = DefaultHeight
+	}
+	for _, d := range []struct {
+		name string
+		v    vg.Length
+	}{{"width", w}, {"height", h}} {
+		if err := checkSize(fn, d.name, d.v); err != nil {
+			return 0, 0, err
+		}
+	}
+	return w, h, nil
+}
+
+// checkSize returns an error unless v is a positive finite length of at
+// most 2 m (a bound far above any screen or page, which keeps a raster
+// image in memory).
+func checkSize(fn, name string, v vg.Length) error {
+	if !(v > 0) || math.IsInf(float64(v), 0) || v > 200*vg.Centimeter {
+		return &ParamError{Func: fn, Param: name, Value: cm(v), Reason: "must be positive, finite and at most 200 cm", Err: ErrFigure}
+	}
+	return nil
+}
+
+// cm formats a vg length in centimetres, for error messages.
+func cm(v vg.Length) string {
+	return strconv.FormatFloat(float64(v/vg.Centimeter), 'g', 6, 64) + " cm"
+}
+
+// SVG renders the figure as an SVG document. Rendering the same figure
+// twice gives identical bytes (gonum/plot's SVG back end writes numbers
+// with fixed precision, and the package's plotters iterate over slices
+// only). It returns a [*ParamError] wrapping [ErrFigure] if Plot is nil or
+// a size is not positive and finite.
+//
+// It draws on a vgsvg canvas directly rather than through
+// plot.Plot.WriterTo, which would link every gonum/plot back end (EPS,
+// TeX, JPEG, TIFF) into each notebook cell.
+func (f Figure) SVG() ([]byte, error) {
+	w, h, err := f.size("Figure.SVG")
+	if err != nil {
+		return nil, err
+	}
+	c := vgsvg.NewWith(vgsvg.UseWH(w, h))
+	drawPlot(f.Plot, c)
+	var buf bytes.Buffer
+	if _, err := c.WriteTo(&buf); err != nil {
+		return nil, err
+	}
+	return buf.Bytes(), nil
+}
+
+// Save writes the figure to the file path in the format its extension
+// names, case-insensitively: ".svg" (the bytes of [Figure.SVG]), ".png"
+// (a raster image at [PNGDPI] dots per inch on a white background) or
+// ".pdf" (fonts embedded). The file is written atomically: to a temporary
+// file in the same directory, which is then renamed over path, so a
+// reader never sees half a figure and a failed write leaves an existing
+// file as it was. It returns a [*ParamError] wrapping [ErrFigure] for
+// another extension, no plot or a bad size, and the error of the file
+// system otherwise.
+func (f Figure) Save(path string) error {
+	w, h, err := f.size("Figure.Save")
+	if err != nil {
+		return err
+	}
+	var buf bytes.Buffer
+	switch ext := strings.ToLower(filepath.Ext(path)); ext {
+	case ".svg":
+		b, err := f.SVG()
+		if err != nil {
+			return err
+		}
+		buf.Write(b)
+	case ".png":
+		c := vgimg.NewWith(vgimg.UseWH(w, h), vgimg.UseDPI(PNGDPI), vgimg.UseBackgroundColor(whiteColor))
+		drawPlot(f.Plot, c)
+		if _, err := (vgimg.PngCanvas{Canvas: c}).WriteTo(&buf); err != nil {
+			return err
+		}
+	case ".pdf":
+		c := vgpdf.New(w, h)
+		drawPlot(f.Plot, c)
+		if _, err := c.WriteTo(&buf); err != nil {
+			return err
+		}
+	default:
+		if ext == "" {
+			ext = "(none)"
+		}
+		return &ParamError{Func: "Figure.Save", Param: "file extension", Value: ext, Reason: "must be .svg, .png or .pdf", Err: ErrFigure}
+	}
+	return writeAtomic(path, buf.Bytes())
+}
+
+// Margins kept free around a figure, so that the last tick label and the
+// title never touch the edge (a renderer may substitute a slightly wider
+// font).
+const (
+	marginRight = 8 // pt
+	marginTop   = 3 // pt
+)
+
+// drawPlot draws p on c inside the figure margins.
+func drawPlot(p *plot.Plot, c vg.CanvasSizer) {
+	p.Draw(draw.Crop(draw.New(c), 0, -vg.Points(marginRight), 0, -vg.Points(marginTop)))
+}
+
+// writeAtomic writes data to a temporary file beside path, syncs it and
+// renames it to path (mode 0644).
+func writeAtomic(path string, data []byte) (err error) {
+	dir, base := filepath.Split(path)
+	if dir == "" {
+		dir = "."
+	}
+	tmp, err := os.CreateTemp(dir, "."+base+".tmp*")
+	if err != nil {
+		return err
+	}
+	defer func() {
+		if err != nil {
+			tmp.Close()
+			os.Remove(tmp.Name())
+		}
+	}()
+	if _, err = tmp.Write(data); err != nil {
+		return err
+	}
+	if err = tmp.Chmod(0o644); err != nil {
+		return err
+	}
+	if err = tmp.Sync(); err != nil {
+		return err
+	}
+	if err = tmp.Close(); err != nil {
+		return err
+	}
+	return os.Rename(tmp.Name(), path)
+}
+
+// String returns the caption, or the plot's title when the caption is
+// empty: the text fallback of the figure (fmt.Stringer).
+func (f Figure) String() string {
+	if f.Caption != "" || f.Plot == nil {
+		return f.Caption
+	}
+	return f.Plot.Title.Text
+}
