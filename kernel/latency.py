@@ -31,22 +31,14 @@ PLOT = """import (
 	"github.com/beamnote/beamnote/opticslib/optplot"
 	"github.com/beamnote/beamnote/opticslib/paraxial"
 	"github.com/beamnote/beamnote/opticslib/units"
-	"gonum.org/v1/plot/vg"
 )
 
 %%
-sys, err := paraxial.NewBuilder().Space(50*units.Millimeter).ThinLens(-25*units.Millimeter).Label("L1").
-	Space(SPACING).ThinLens(100*units.Millimeter).Label("L2").Space(300*units.Millimeter).Build()
-if err != nil { panic(err) }
-in, err := beam.FromWaist(0.4*units.Millimeter, 0, 780*units.Nanometer, 1)
-if err != nil { panic(err) }
-c, err := beam.Sample(sys, in, 400)
-if err != nil { panic(err) }
-p, err := optplot.Caustic(c, sys)
-if err != nil { panic(err) }
-svg, err := optplot.SVG(p, 16*vg.Centimeter, 9*vg.Centimeter)
-if err != nil { panic(err) }
-nb.SVG(svg, "latency probe caustic")
+sys := nb.Must(paraxial.NewBuilder().Space(50*units.Millimeter).ThinLens(-25*units.Millimeter).Label("L1").
+	Space(SPACING).ThinLens(100*units.Millimeter).Label("L2").Space(300*units.Millimeter).Build())
+in := nb.Must(beam.FromWaist(beam.WaistSpec{WaistRadius: 0.4 * units.Millimeter, Wavelength: 780 * units.Nanometer}))
+c := nb.Must(beam.Sample(sys, in, 400))
+nb.Show(optplot.Caustic(c, sys, optplot.Caption("latency probe caustic")))
 """
 
 
