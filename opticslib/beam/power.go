@@ -9,6 +9,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/beamnote/beamnote/opticslib/paraxial"
+	"github.com/beamnote/beamnote/opticslib/table"
 	"github.com/beamnote/beamnote/opticslib/units"
 )
 
@@ -481,34 +482,11 @@ func (ir Irradiance) Summary() string {
 	if short(ir.MaxW) != short(ir.MaxWY) {
 		w = "wx = " + short(ir.MaxW) + " and wy = " + short(ir.MaxWY)
 	}
-	return "Peak irradiance 2P/(π wx wy) for P = " + watts(ir.Power) + ": highest " +
+	return "Peak irradiance 2P/(π wx wy) for P = " + table.Power(ir.Power) + ": highest " +
 		strconv.FormatFloat(ir.Max, 'e', 2, 64) + " W/m² (" + strconv.FormatFloat(ir.Max*1e-4, 'g', 3, 64) +
 		" W/cm²), at z = " + ir.MaxZ.String() + " where " + w + ".\n\n" + SafetyNote
 }
 
-// watts formats a power in W, mW or µW with four significant digits.
-func watts(p float64) string {
-	switch a := math.Abs(p); {
-	case a >= 1:
-		return strconv.FormatFloat(p, 'g', 4, 64) + " W"
-	case a >= 1e-3:
-		return strconv.FormatFloat(p*1e3, 'g', 4, 64) + " mW"
-	default:
-		return strconv.FormatFloat(p*1e6, 'g', 4, 64) + " µW"
-	}
-}
-
 // short formats a length with three significant digits in the unit that
-// [units.Length.String] would choose, for example "3 mm" or "16.9 µm".
-func short(l units.Length) string {
-	v := math.Abs(float64(l))
-	switch {
-	case v >= 1 || v == 0 || !finite(v):
-		return strconv.FormatFloat(float64(l), 'g', 3, 64) + " m"
-	case v >= 1e-3:
-		return strconv.FormatFloat(l.Millimeters(), 'g', 3, 64) + " mm"
-	case v >= 1e-6:
-		return strconv.FormatFloat(l.Micrometers(), 'g', 3, 64) + " µm"
-	}
-	return strconv.FormatFloat(l.Nanometers(), 'g', 3, 64) + " nm"
-}
+// suits it, for example "3 mm" or "16.9 µm".
+func short(l units.Length) string { return table.LengthSig(l, 3) }

@@ -10,6 +10,7 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 
 	"github.com/beamnote/beamnote/opticslib/beam"
+	"github.com/beamnote/beamnote/opticslib/table"
 	"github.com/beamnote/beamnote/opticslib/units"
 )
 
@@ -218,7 +219,7 @@ func AlongZ(c beam.Caustic, q Quantity, opts ...Option) (Figure, error) {
 	case qEllipticity:
 		title, yLabel = "Ellipticity along z", "ellipticity wy/wx"
 	case qIrradiance:
-		title, yLabel = "On-axis peak irradiance along z, P = "+watts(q.power), "peak irradiance I₀ ("+unit+")"
+		title, yLabel = "On-axis peak irradiance along z, P = "+table.Power(q.power), "peak irradiance I₀ ("+unit+")"
 	case qGouy:
 		title, yLabel = "Accumulated Gouy phase along z", "Gouy phase ψ (rad)"
 	}
@@ -404,16 +405,4 @@ func fitRange(curves []curve, lo, hi float64, fromZero, withKey bool) (ymin, yma
 		ymin -= 0.06 * span
 	}
 	return ymin, ymax + top*span
-}
-
-// watts formats a power in W, mW or µW with four significant digits.
-func watts(p float64) string {
-	switch a := math.Abs(p); {
-	case a >= 1:
-		return strconv.FormatFloat(p, 'g', 4, 64) + " W"
-	case a >= 1e-3:
-		return strconv.FormatFloat(p*1e3, 'g', 4, 64) + " mW"
-	default:
-		return strconv.FormatFloat(p*1e6, 'g', 4, 64) + " µW"
-	}
 }

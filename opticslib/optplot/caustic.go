@@ -15,6 +15,7 @@ import (
 
 	"github.com/beamnote/beamnote/opticslib/beam"
 	"github.com/beamnote/beamnote/opticslib/paraxial"
+	"github.com/beamnote/beamnote/opticslib/table"
 	"github.com/beamnote/beamnote/opticslib/units"
 )
 
@@ -733,11 +734,11 @@ func (wn *waistNotes) Plot(c draw.Canvas, plt *plot.Plot) {
 	}
 }
 
-// short formats a length with three significant digits in µm below 1 mm
-// and in mm otherwise, for example "16.9 µm" and "1.25 mm".
+// short formats a length with three significant digits in µm or mm (as
+// the waist notes show them).
 func short(l units.Length) string {
-	if math.Abs(float64(l)) < 1e-3 {
-		return strconv.FormatFloat(l.Micrometers(), 'g', 3, 64) + " µm"
+	if math.Abs(float64(l)) >= 1 {
+		return table.In(l, units.Millimeter, 0) + " mm"
 	}
-	return strconv.FormatFloat(l.Millimeters(), 'g', 3, 64) + " mm"
+	return table.LengthSig(l, 3)
 }

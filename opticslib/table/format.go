@@ -11,15 +11,24 @@ func itoa(i int) string { return strconv.Itoa(i) }
 
 func strconvQuote(s string) string { return strconv.Quote(s) }
 
+// infinite returns "∞" or "−∞" for an infinite v.
+func infinite(v float64) (string, bool) {
+	switch {
+	case math.IsInf(v, 1):
+		return "∞", true
+	case math.IsInf(v, -1):
+		return "−∞", true
+	}
+	return "", false
+}
+
 // Fixed formats v with dec decimals, "∞" or "−∞" for an infinite value
 // (a flat surface or wavefront), and never "-0".
 func Fixed(v float64, dec int) string {
-	switch {
-	case math.IsInf(v, 1):
-		return "∞"
-	case math.IsInf(v, -1):
-		return "−∞"
-	case v == 0:
+	if s, ok := infinite(v); ok {
+		return s
+	}
+	if v == 0 {
 		v = 0
 	}
 	s := strconv.FormatFloat(v, 'f', dec, 64)
@@ -55,12 +64,10 @@ func In(l, u units.Length, dec int) string { return Fixed(float64(l/u), dec) }
 // Sig formats v with n significant digits (no exponent between 1e-4 and
 // 1e6), "∞" for +Inf.
 func Sig(v float64, n int) string {
-	switch {
-	case math.IsInf(v, 1):
-		return "∞"
-	case math.IsInf(v, -1):
-		return "−∞"
-	case v == 0:
+	if s, ok := infinite(v); ok {
+		return s
+	}
+	if v == 0 {
 		return "0"
 	}
 	return strconv.FormatFloat(v, 'g', n, 64)
@@ -69,20 +76,37 @@ func Sig(v float64, n int) string {
 // Quantity formats a length with four significant digits in the unit that
 // suits it (nm, µm, mm or m), for example "420 µm" or "1.241 m"; "∞" for
 // an infinite one.
-func Quantity(l units.Length) string {
+func Quantity(l units.Length) string { return LengthSig(l, 4) }
+
+// LengthSig formats a length with n significant digits in the unit that
+// suits it: nm below 1 µm, µm below 1 mm, mm below 1 m, metres above;
+// "∞" for an infinite one.
+func LengthSig(l units.Length, n int) string {
 	v := float64(l)
 	a := math.Abs(v)
 	switch {
 	case math.IsInf(v, 0):
-		return Sig(v, 4)
+		return Sig(v, n)
 	case a == 0:
 		return "0 m"
 	case a < 1e-6:
-		return Sig(v/1e-9, 4) + " nm"
+		return Sig(v/1e-9, n) + " nm"
 	case a < 1e-3:
-		return Sig(v/1e-6, 4) + " µm"
+		return Sig(v/1e-6, n) + " µm"
 	case a < 1:
-		return Sig(v/1e-3, 4) + " mm"
+		return Sig(v/1e-3, n) + " mm"
 	}
-	return Sig(v, 4) + " m"
+	return Sig(v, n) + " m"
+}
+
+// Power formats a power in watts with four significant digits in W, mW or
+// µW, for example "5 mW".
+func Power(p float64) string {
+	switch a := math.Abs(p); {
+	case a >= 1:
+		return Sig(p, 4) + " W"
+	case a >= 1e-3:
+		return Sig(p*1e3, 4) + " mW"
+	}
+	return Sig(p*1e6, 4) + " µW"
 }
