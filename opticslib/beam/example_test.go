@@ -179,7 +179,7 @@ func ExampleClipping() {
 	}
 	// Output:
 	// FlatMirror "fold mirror" (call 2): 0.9040 true
-	// FlatMirror "fold mirror" (call 2) at z = 100 mm: ⌀ 8 mm at 45° passes 90.40 % of the beam (wx = 3 mm, footprint 4.24 mm, wy = 3 mm), below 99.00 %
+	// FlatMirror "fold mirror" (call 2) at z = 100 mm: Ø 8 mm at 45° passes 90.40 % of the beam (wx = 3 mm, footprint 4.24 mm, wy = 3 mm), below 99.00 %
 	// ThinLens "L1" (call 4): 1.0000 false
 }
 

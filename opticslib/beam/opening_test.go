@@ -174,7 +174,7 @@ func TestOwnThreshold(t *testing.T) {
 		}
 		c := clips[0]
 		if c.Low != test.low || !c.OwnThreshold || c.MinTransmission != 0.5 {
-			t.Errorf("⌀ %v pinhole: %+v; want Low = %v with its own 50 %% threshold", test.d, c, test.low)
+			t.Errorf("Ø %v pinhole: %+v; want Low = %v with its own 50 %% threshold", test.d, c, test.low)
 		}
 	}
 }

@@ -187,7 +187,7 @@ type Clip struct {
 // Warning returns a one-line warning when the opening passes less than
 // the threshold, for example
 //
-//	FlatMirror "M1" (call 8) at z = 223 mm: ⌀ 9 mm at 45° passes 93.59 % of the beam (wx = 3.1 mm, footprint 4.38 mm, wy = 3.1 mm), below 99.00 %
+//	FlatMirror "M1" (call 8) at z = 223 mm: Ø 9 mm at 45° passes 93.59 % of the beam (wx = 3.1 mm, footprint 4.38 mm, wy = 3.1 mm), below 99.00 %
 //
 // and "" otherwise.
 func (c Clip) Warning() string {
@@ -200,7 +200,7 @@ func (c Clip) Warning() string {
 	} else if short(c.WY) != short(c.W) {
 		w = "wx = " + short(c.W) + ", wy = " + short(c.WY)
 	}
-	what := "⌀ " + short(c.Opening.Diameter())
+	what := "Ø " + short(c.Opening.Diameter())
 	if c.Opening.Shape == paraxial.Slit {
 		what = short(c.Opening.Diameter()) + " slit"
 	}

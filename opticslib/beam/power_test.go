@@ -118,7 +118,7 @@ func TestApertures(t *testing.T) {
 	if c1.Low || c1.Name != "ThinLens (call 4)" || c1.Warning() != "" {
 		t.Errorf("second lens check = %+v, want not flagged, named by its builder call", c1)
 	}
-	wantWarn := `ThinLens "L1" (call 2) at z = 1 mm: ⌀ 8 mm passes 97.14 % of the beam (w = 3 mm), below 99.00 %`
+	wantWarn := `ThinLens "L1" (call 2) at z = 1 mm: Ø 8 mm passes 97.14 % of the beam (w = 3 mm), below 99.00 %`
 	if got := c0.Warning(); got != wantWarn {
 		t.Errorf("Warning() = %q, want %q", got, wantWarn)
 	}

@@ -1,6 +1,7 @@
 package beam
 
 import (
+	"math"
 	"strconv"
 
 	"github.com/beamnote/beamnote/opticslib/paraxial"
@@ -36,27 +37,20 @@ func (ws WaistList) Surfaces(sys paraxial.System) WaistList {
 // Table returns the waists as a table: the element, the waist position
 // from the input plane and from the element (negative for a virtual waist
 // before it), the waist radius, the Rayleigh range and the index after the
-// element; x and y columns when the beam is astigmatic. Each length column
-// is in the unit that suits it (µm, mm or m), named in its header; radii
-// and Rayleigh ranges have four significant digits.
+// element; x and y columns when the beam is astigmatic. Positions are in
+// mm; waist radii and Rayleigh ranges, which span decades along a path (a
+// focus next to a collimated beam), carry their unit in each cell, with
+// four significant digits.
 func (ws WaistList) Table() table.Table {
 	astig := false
 	for _, w := range ws {
 		astig = astig || w.ZY != w.Z || w.RadiusY != w.Radius
 	}
-	col := func(f func(Waist) units.Length) (units.Length, string) {
-		vs := make([]units.Length, len(ws))
-		for i, w := range ws {
-			vs[i] = f(w)
-		}
-		return table.LengthUnit(vs...)
-	}
-	ru, rn := col(func(w Waist) units.Length { return max(w.Radius, w.RadiusY) })
-	zu, zn := col(func(w Waist) units.Length { return max(w.RayleighRange, w.RayleighRangeY) })
-	t := table.Table{Caption: "Waists after each element", Header: []string{"after", "waist z (mm)", "from the element (mm)", "w0 (" + rn + ")", "zR (" + zn + ")", "n"}}
+	t := table.Table{Caption: "Waists after each element", Header: []string{"after", "waist z (mm)", "from the element (mm)", "w0", "zR", "n"}}
 	if astig {
-		t.Header = []string{"after", "x waist z (mm)", "y waist z (mm)", "w0x (" + rn + ")", "w0y (" + rn + ")", "zRx (" + zn + ")", "zRy (" + zn + ")", "n"}
+		t.Header = []string{"after", "x waist z (mm)", "y waist z (mm)", "w0x", "w0y", "zRx", "zRy", "n"}
 	}
+	q := func(l units.Length) string { return table.LengthSig(l, 4) }
 	for _, w := range ws {
 		name := w.Name
 		if name == "" {
@@ -64,18 +58,14 @@ func (ws WaistList) Table() table.Table {
 		}
 		if astig {
 			t.Rows = append(t.Rows, []string{name, table.In(w.Z, units.Millimeter, 2), table.In(w.ZY, units.Millimeter, 2),
-				sig(w.Radius, ru), sig(w.RadiusY, ru), sig(w.RayleighRange, zu), sig(w.RayleighRangeY, zu), table.Fixed(w.Index, 4)})
+				q(w.Radius), q(w.RadiusY), q(w.RayleighRange), q(w.RayleighRangeY), table.Fixed(w.Index, 4)})
 			continue
 		}
 		t.Rows = append(t.Rows, []string{name, table.In(w.Z, units.Millimeter, 2), table.In(w.AfterElement, units.Millimeter, 2),
-			sig(w.Radius, ru), sig(w.RayleighRange, zu), table.Fixed(w.Index, 4)})
+			q(w.Radius), q(w.RayleighRange), table.Fixed(w.Index, 4)})
 	}
 	return t
 }
-
-// sig formats l in unit u with four significant digits, so that a column
-// spanning decades (a focus next to a collimated beam) keeps its precision.
-func sig(l, u units.Length) string { return table.Sig(float64(l/u), 4) }
 
 // Clips is the result of [Clipping]: one check per clear aperture.
 type Clips []Clip
@@ -92,11 +82,11 @@ func (cs Clips) Low() Clips {
 }
 
 // Table returns the clipping check as a table: element, position, clear
-// diameter, tilt, beam radius across the beam and the footprint on the part
-// (mm), transmitted fraction and threshold (%), and a status ("ok",
+// diameter, tilt, the 1/e² beam radius across the beam and the x semi-axis
+// of its footprint on the part (both radii, mm), transmitted fraction and threshold (%), and a status ("ok",
 // "clips", or "clips (own threshold)").
 func (cs Clips) Table() table.Table {
-	t := table.Table{Caption: "Clipping at the clear apertures", Header: []string{"element", "z (mm)", "clear ⌀ (mm)", "tilt (°)", "w (mm)", "footprint (mm)", "passes (%)", "threshold (%)", "status"}}
+	t := table.Table{Caption: "Clipping at the clear apertures", Header: []string{"element", "z (mm)", "clear Ø (mm)", "tilt (°)", "beam radius w (mm)", "footprint x semi-axis (mm)", "passes (%)", "threshold (%)", "status"}}
 	for _, c := range cs {
 		status := "ok"
 		if c.Low {
@@ -127,13 +117,20 @@ func (cs Clips) Table() table.Table {
 func (g Gaussian) Table() table.Table {
 	t := table.Table{Caption: "Gaussian beam", Header: []string{"quantity", "value"}}
 	add := func(k, v string) { t.Rows = append(t.Rows, []string{k, v}) }
+	// At a waist to rounding (|z| below 1e-9 zR) the wavefront is flat and
+	// the waist here: print ∞ and 0, not 4e14 m and 1e-14 nm.
+	atWaist := math.Abs(real(g.Q)) <= 1e-9*imag(g.Q)
+	r, off := table.Quantity(g.WavefrontRadius()), table.Quantity(g.WaistOffset())
+	if atWaist {
+		r, off = "∞", "0 (at the waist)"
+	}
 	add("beam radius w (1/e²)", table.Quantity(g.Radius()))
-	add("wavefront radius R", table.Quantity(g.WavefrontRadius()))
+	add("wavefront radius R", r)
 	add("waist radius w0", table.Quantity(g.WaistRadius()))
-	add("waist position from here", table.Quantity(g.WaistOffset()))
+	add("waist position from here", off)
 	add("Rayleigh range zR", table.Quantity(g.RayleighRange()))
-	add("half-divergence θ", g.HalfDivergence().String())
-	add("full divergence Θ (ISO 11146)", g.FullDivergence().String())
+	add("half-divergence θ", table.AngleSig(g.HalfDivergence(), 4))
+	add("full divergence Θ (ISO 11146)", table.AngleSig(g.FullDivergence(), 4))
 	add("M²", table.Sig(g.BeamQuality(), 4))
 	add("vacuum wavelength λ0", table.Quantity(g.Wavelength))
 	add("index n", table.Sig(g.Index, 6))

@@ -238,12 +238,23 @@ func AlongZ(c beam.Caustic, q Quantity, opts ...Option) (Figure, error) {
 		return Figure{}, err
 	}
 	caption := title
+	rangeHi := hi
 	switch q.kind {
 	case qIrradiance:
 		if ir, err := c.Irradiance(q.power); err == nil {
-			hi := "Highest " + strconv.FormatFloat(ir.Max*1e-4*scale, 'g', 3, 64) + " " + unit + " at z = " + ir.MaxZ.String()
-			key.notes = append(key.notes, hi+".")
-			caption += ". " + hi
+			var hi string
+			if z := ir.MaxZ.Millimeters(); z >= lo && z <= rangeHi {
+				hi = "Highest " + strconv.FormatFloat(ir.Max*1e-4*scale, 'g', 3, 64) + " " + unit + " at z = " + table.In(ir.MaxZ, units.Millimeter, 1) + " mm"
+			} else if zv, v, ok := curveMax(curves, lo, rangeHi); ok {
+				// The path's maximum lies outside the range shown: give the
+				// highest value in view (sampled), and where the maximum is.
+				hi = "Highest in view " + strconv.FormatFloat(v, 'g', 3, 64) + " " + unit + " at z = " + strconv.FormatFloat(zv, 'f', 1, 64) +
+					" mm (on the whole path " + strconv.FormatFloat(ir.Max*1e-4*scale, 'g', 3, 64) + " " + unit + " at z = " + table.In(ir.MaxZ, units.Millimeter, 1) + " mm)"
+			}
+			if hi != "" {
+				key.notes = append(key.notes, hi+".")
+				caption += ". " + hi
+			}
 		}
 		key.notes = append(key.notes, safetyShort)
 		key.noteColor = warnColor
@@ -320,6 +331,20 @@ func checkQuantity(fn, name string, c beam.Caustic, q Quantity) error {
 		}
 	}
 	return nil
+}
+
+// curveMax returns the largest y of the curves within [lo, hi] (plot
+// units) and where it is.
+func curveMax(curves []curve, lo, hi float64) (z, v float64, ok bool) {
+	v = math.Inf(-1)
+	for _, cv := range curves {
+		for _, p := range cv.xys {
+			if p.X >= lo && p.X <= hi && p.Y > v {
+				z, v, ok = p.X, p.Y, true
+			}
+		}
+	}
+	return z, v, ok
 }
 
 // irradiance returns 2P/(π wx wy) in W/cm² for radii in mm.

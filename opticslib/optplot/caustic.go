@@ -520,7 +520,7 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (Figure, error
 		p.Add(marks)
 	}
 	if len(omitted) > 0 {
-		key.notes = append(key.notes, "Not drawn, far outside the beam: "+strings.Join(omitted, ", ")+".")
+		key.notes = append(key.notes, "Not drawn, beyond twice the largest beam radius: "+strings.Join(omitted, ", ")+".")
 	}
 
 	if cfg.waists {
@@ -553,10 +553,10 @@ func bandFill(on bool) color.Color {
 	return nil
 }
 
-// stopNote describes an opening that is not drawn: "L1 ⌀ 25.4 mm", or
+// stopNote describes an opening that is not drawn: "L1 Ø 25.4 mm", or
 // "S slit 2 mm" for a slit.
 func stopNote(name string, o paraxial.Opening) string {
-	size := "⌀ " + o.Diameter().String()
+	size := "Ø " + o.Diameter().String()
 	if o.Shape == paraxial.Slit {
 		size = "slit " + o.Diameter().String()
 	}
@@ -572,7 +572,7 @@ func causticCaption(title string, c beam.Caustic, astig bool) string {
 			if f.Z <= c.Z[0] { // the source, at the start of the path
 				continue
 			}
-			parts = append(parts, plane+"w₀ "+short(f.Radius)+" at z = "+f.Z.String())
+			parts = append(parts, plane+"w₀ "+short(f.Radius)+" at z = "+table.In(f.Z, units.Millimeter, 1)+" mm")
 		}
 	}
 	if astig {

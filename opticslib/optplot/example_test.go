@@ -66,7 +66,7 @@ func ExampleCaustic() {
 	fmt.Println(f)
 	// Output:
 	// true true
-	// 3× beam expander. Waists: w₀ 33.9 µm at z = 100 mm.
+	// 3× beam expander. Waists: w₀ 33.9 µm at z = 100.0 mm.
 }
 
 // The on-axis peak irradiance of 20 mW through the expander: the figure

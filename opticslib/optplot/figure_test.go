@@ -336,7 +336,7 @@ func TestOmittedStopNoted(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if svg := string(mustSVG(t, f)); !strings.Contains(svg, "far outside the beam") || !strings.Contains(svg, "L1 ⌀ 25.4 mm") {
+	if svg := string(mustSVG(t, f)); !strings.Contains(svg, "beyond twice the largest beam radius") || !strings.Contains(svg, "L1 Ø 25.4 mm") {
 		t.Errorf("the omitted stop of L1 is not noted")
 	}
 }

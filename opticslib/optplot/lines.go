@@ -32,6 +32,10 @@ var ErrSeries = errors.New("optplot: line figure needs series with matching X an
 // colours of [Also].
 var seriesStyles = append([]draw.LineStyle{{Color: envelopeColor, Width: vg.Points(1.4)}}, overlayStyles...)
 
+// maxDotted is the largest number of points of a series that [Lines]
+// marks with a dot at each point.
+const maxDotted = 30
+
 // Lines returns a line figure of the series, for what-if sweeps (a waist
 // radius against a lens position, a transmission against an iris
 // diameter): one line per series in its own colour and dash pattern, a
@@ -124,6 +128,19 @@ func Lines(title, xLabel, yLabel string, series ...Series) (Figure, error) {
 	}
 	if err := addCurves(p, key, lines); err != nil {
 		return Figure{}, err
+	}
+	// A few cases (a what-if sweep) get a dot at each, so that five points
+	// do not read as a continuous curve.
+	for _, cv := range lines {
+		if len(cv.xys) > maxDotted {
+			continue
+		}
+		sc, err := plotter.NewScatter(cv.xys)
+		if err != nil {
+			return Figure{}, err
+		}
+		sc.GlyphStyle = draw.GlyphStyle{Color: cv.style.Color, Radius: vg.Points(2), Shape: draw.CircleGlyph{}}
+		p.Add(sc)
 	}
 	if !key.empty() {
 		p.Add(key)

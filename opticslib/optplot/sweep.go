@@ -2,6 +2,8 @@ package optplot
 
 import (
 	"github.com/beamnote/beamnote/opticslib/sweep"
+	"github.com/beamnote/beamnote/opticslib/table"
+	"github.com/beamnote/beamnote/opticslib/units"
 )
 
 // Sweep returns a figure of a what-if study (sweep.Over): the quantities
@@ -10,7 +12,7 @@ import (
 // share a unit, so that they can share the y axis.
 func Sweep(r sweep.Result, names ...string) (Figure, error) {
 	if len(r.Quantities) == 0 || len(r.Values) == 0 {
-		return Figure{}, &ParamError{Func: "Sweep", Param: "sweep", Reason: "has no cases; make it with sweep.Over"}
+		return Figure{}, &ParamError{Func: "Sweep", Param: "sweep", Reason: "has no cases; make it with sweep.Over", Err: ErrSeries}
 	}
 	var qs []int
 	if len(names) == 0 {
@@ -26,17 +28,36 @@ func Sweep(r sweep.Result, names ...string) (Figure, error) {
 		qs = append(qs, q)
 	}
 	x, xu := r.ParameterColumn()
+	// Lengths share one display unit, chosen over all the plotted values;
+	// numbers must have the same unit to share the axis.
+	var all []units.Length
+	for _, q := range qs {
+		if r.Quantities[q].Kind == sweep.KindLength {
+			for _, v := range r.Data[q] {
+				all = append(all, units.Length(v))
+			}
+		}
+	}
+	lu, lsym := table.LengthUnit(all...)
 	var series []Series
 	unit := ""
 	for i, q := range qs {
-		y, u := r.Column(q)
+		qt := r.Quantities[q]
+		u := qt.Unit
+		y := append([]float64(nil), r.Data[q]...)
+		if qt.Kind == sweep.KindLength {
+			u = lsym
+			for j := range y {
+				y[j] /= float64(lu)
+			}
+		}
 		if i == 0 {
 			unit = u
-		} else if u != unit {
-			return Figure{}, &ParamError{Func: "Sweep", Param: "quantity " + r.Quantities[q].Name, Value: u,
-				Reason: "has another unit than " + r.Quantities[qs[0]].Name + " (" + unit + "); plot them in two figures"}
+		} else if u != unit || (qt.Kind == sweep.KindLength) != (r.Quantities[qs[0]].Kind == sweep.KindLength) {
+			return Figure{}, &ParamError{Func: "Sweep", Param: "quantity " + qt.Name, Value: u,
+				Reason: "has another unit than " + r.Quantities[qs[0]].Name + " (" + unit + "); plot them in two figures", Err: ErrSeries}
 		}
-		series = append(series, Series{Label: r.Quantities[q].Name, X: x, Y: y})
+		series = append(series, Series{Label: qt.Name, X: x, Y: y})
 	}
 	ylabel := r.Quantities[qs[0]].Name
 	if len(qs) > 1 {

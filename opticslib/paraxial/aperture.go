@@ -103,9 +103,9 @@ type Stops struct {
 	Plane  Plane
 	// Start is the axial position at which the rays below are given.
 	Start units.Length
-	// Stop is the element index of the aperture stop, StopName how
-	// messages name it ([Element.Name]) and StopZ its position (a space's
-	// entrance or exit when the stop is a tube).
+	// Stop is the element index of the aperture stop, StopName its label
+	// (or [Element.Name] when it has none) and StopZ its position (a
+	// space's entrance or exit when the stop is a tube).
 	Stop     int
 	StopName string
 	StopZ    units.Length
@@ -130,7 +130,7 @@ type Stops struct {
 	FNumber float64
 	// FieldStop is the element index of the field stop, or −1 if no other
 	// clear aperture limits the field; the fields below are then zero.
-	// FieldStopName names it ([Element.Name]).
+	// FieldStopName is its label, or [Element.Name] without one.
 	FieldStop     int
 	FieldStopName string
 	// HalfField is the field at which the chief ray reaches the edge of
@@ -306,7 +306,7 @@ func (s System) Stops(obj Object, p Plane) (Stops, error) {
 		return Stops{}, ErrNoStop
 	}
 	a.Stop, a.StopZ, a.StopRadius = stop.elem, stop.z, stop.a
-	a.StopName = s.elems[stop.elem].Name()
+	a.StopName = labelOrName(s.elems[stop.elem])
 	a.Marginal = Ray{Y: trial.Y * units.Length(best), Theta: trial.Theta * units.Angle(best)}
 
 	// Matrices from the start plane to the stop plane, and from the stop
@@ -394,7 +394,7 @@ func (s System) Stops(obj Object, p Plane) (Stops, error) {
 		unvig = math.Min(unvig, math.Max(0, float64(c.a)-ym)/yc)
 	})
 	if a.FieldStop >= 0 {
-		a.FieldStopName = s.elems[a.FieldStop].Name()
+		a.FieldStopName = labelOrName(s.elems[a.FieldStop])
 		if obj.Infinite {
 			a.HalfField = Field{Angle: units.Angle(half)}
 			a.UnvignettedField = Field{Angle: units.Angle(unvig)}
@@ -410,6 +410,14 @@ func (s System) Stops(obj Object, p Plane) (Stops, error) {
 		}
 	}
 	return a, nil
+}
+
+// labelOrName returns e's label, or its Name without one.
+func labelOrName(e Element) string {
+	if e.Label != "" {
+		return e.Label
+	}
+	return e.Name()
 }
 
 // Step is one point of a traced ray: the ray just after element Element

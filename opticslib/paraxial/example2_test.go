@@ -82,9 +82,9 @@ func ExampleSystem_Stops() {
 	fmt.Printf("f-number %.2f, image NA %.3f\n", a.FNumber, a.ImageNA)
 	fmt.Printf("field stop: %s, half field %.3f°\n", a.FieldStopName, a.HalfField.Angle.Degrees())
 	// Output:
-	// stop: Diaphragm "iris" (call 2), entrance pupil z = 10.0 mm, radius 4.00 mm
+	// stop: iris, entrance pupil z = 10.0 mm, radius 4.00 mm
 	// f-number 6.25, image NA 0.080
-	// field stop: Diaphragm "sensor" (call 6), half field 4.584°
+	// field stop: sensor, half field 4.584°
 }
 
 func ExampleSystem_WithSpace() {
@@ -167,9 +167,9 @@ func ExampleSystem_Table() {
 	// call         element                           label  z (mm)  length (mm)  R / f (mm)  n after  tilt (°)  clear aperture (mm)
 	// -----------  --------------------------------  -----  ------  -----------  ----------  -------  --------  -------------------
 	// 1 Space      space                                    0.000   5.000                    1.0000
-	// 2 ThickLens  spherical interface (thick lens)  PCX    5.000                R 25.000    1.5000             ⌀ 12.000
+	// 2 ThickLens  spherical interface (thick lens)  PCX    5.000                R 25.000    1.5000             Ø 12.000
 	// 2 ThickLens  space (thick lens)                PCX    5.000   3.000                    1.5000
-	// 2 ThickLens  planar interface (thick lens)     PCX    8.000                flat        1.0000             ⌀ 12.000
+	// 2 ThickLens  planar interface (thick lens)     PCX    8.000                flat        1.0000             Ø 12.000
 	// 3 Space      space                                    8.000   45.000                   1.0000
 }
 

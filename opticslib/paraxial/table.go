@@ -18,13 +18,13 @@ func mmCell(l units.Length, dec int, blank bool) string {
 
 func numCell(v float64, dec int) string { return table.Fixed(v, dec) }
 
-// openingCell describes a clear aperture in mm: "⌀ 25.4", "slit 0.1 (x)",
+// openingCell describes a clear aperture in mm: "Ø 25.4", "slit 0.1 (x)",
 // with its offset when it has one.
 func openingCell(o Opening) string {
 	if !o.Limited() {
 		return ""
 	}
-	c := "⌀ " + mmCell(o.Diameter(), 3, false)
+	c := "Ø " + mmCell(o.Diameter(), 3, false)
 	if o.Shape == Slit {
 		c = "slit " + mmCell(o.Diameter(), 3, false) + " (" + planeName(o.Across) + ")"
 	}

@@ -218,7 +218,7 @@ func (r Result) Label(q int) string {
 	return r.Quantities[q].Name + " (" + u + ")"
 }
 
-// Table returns the sweep as a table, one row per case, five significant
+// Table returns the sweep as a table, one row per case, four significant
 // digits.
 func (r Result) Table() table.Table {
 	pv, pu := r.ParameterColumn()
@@ -229,9 +229,9 @@ func (r Result) Table() table.Table {
 		t.Header = append(t.Header, r.Label(q))
 	}
 	for i := range r.Values {
-		row := []string{table.Sig(pv[i], 5)}
+		row := []string{table.Sig(pv[i], 4)}
 		for q := range cols {
-			row = append(row, table.Sig(cols[q][i], 5))
+			row = append(row, table.Sig(cols[q][i], 4))
 		}
 		t.Rows = append(t.Rows, row)
 	}

@@ -3,6 +3,7 @@ package table
 import (
 	"math"
 	"strconv"
+	"strings"
 
 	"github.com/beamnote/beamnote/opticslib/units"
 )
@@ -61,8 +62,9 @@ func LengthUnit(vs ...units.Length) (units.Length, string) {
 // length, see [Fixed]).
 func In(l, u units.Length, dec int) string { return Fixed(float64(l/u), dec) }
 
-// Sig formats v with n significant digits (no exponent between 1e-4 and
-// 1e6), "∞" for +Inf.
+// Sig formats v with n significant digits, trailing zeros removed:
+// without an exponent for 1e-4 ≤ |v| < 1e6 (5320 with n = 3 is "5320"),
+// with one outside; "∞" for +Inf.
 func Sig(v float64, n int) string {
 	if s, ok := infinite(v); ok {
 		return s
@@ -70,7 +72,31 @@ func Sig(v float64, n int) string {
 	if v == 0 {
 		return "0"
 	}
-	return strconv.FormatFloat(v, 'g', n, 64)
+	a := math.Abs(v)
+	if a < 1e-4 || a >= 1e6 {
+		return strconv.FormatFloat(v, 'g', n, 64)
+	}
+	// Round to n significant digits first, then print them in 'f' form.
+	r, _ := strconv.ParseFloat(strconv.FormatFloat(v, 'g', n, 64), 64)
+	dec := max(0, n-1-int(math.Floor(math.Log10(math.Abs(r)))))
+	s := strconv.FormatFloat(r, 'f', dec, 64)
+	if strings.Contains(s, ".") {
+		s = strings.TrimRight(strings.TrimRight(s, "0"), ".")
+	}
+	return s
+}
+
+// AngleSig formats an angle with n significant digits in rad, mrad or
+// µrad, as units.Angle.String chooses the unit.
+func AngleSig(a units.Angle, n int) string {
+	v := float64(a)
+	switch m := math.Abs(v); {
+	case m >= 1 || m == 0:
+		return Sig(v, n) + " rad"
+	case m >= 1e-3:
+		return Sig(v/1e-3, n) + " mrad"
+	}
+	return Sig(v/1e-6, n) + " µrad"
 }
 
 // Quantity formats a length with four significant digits in the unit that

@@ -65,3 +65,15 @@ func TestQuantityAndUnits(t *testing.T) {
 		t.Errorf("In = %q", got)
 	}
 }
+
+func TestSig(t *testing.T) {
+	for _, test := range []struct {
+		v    float64
+		n    int
+		want string
+	}{{5320, 3, "5320"}, {5324.9, 3, "5320"}, {0.006562, 4, "0.006562"}, {2.1, 5, "2.1"}, {61.5263, 4, "61.53"}, {7.22e8, 3, "7.22e+08"}, {3e-5, 2, "3e-05"}, {999.96, 4, "1000"}, {-0.75573, 4, "-0.7557"}} {
+		if got := Sig(test.v, test.n); got != test.want {
+			t.Errorf("Sig(%g, %d) = %q, want %q", test.v, test.n, got, test.want)
+		}
+	}
+}
