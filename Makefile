@@ -11,7 +11,7 @@
 #   make doctor          list what is missing, with the fix for each
 #   make bench           Go benchmarks of opticslib
 #   make latency         measure notebook cell latency (see DEVELOPERS.md)
-#   make compare         the same work as the Go benchmarks, in NumPy, for comparison
+#   make compare         the Go and the NumPy version of each speed case side by side, one line each
 #
 # KERNEL_SCOPE=user installs the kernelspec in the per-user Jupyter data dir
 # (`jupyter --data-dir`: $JUPYTER_DATA_DIR, else $XDG_DATA_HOME/jupyter or ~/.local/share/jupyter)
@@ -75,4 +75,4 @@ clean:
 	rm -rf $(STATE) build
 
 compare:
-	$(PYTHON) testdata/bench/rays_numpy.py
+	BEAMNOTE_PYTHON='$(PYTHON)' $(GO) run ./testdata/bench/compare

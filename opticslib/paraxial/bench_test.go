@@ -58,7 +58,7 @@ func BenchmarkApply(b *testing.B) {
 		b.ReportAllocs()
 		for b.Loop() {
 			// Each ray's result goes to its own slot, as an array program
-			// would write it (testdata/bench/rays_numpy.py); summing into
+			// would write it (testdata/bench/numpy_side.py); summing into
 			// one accumulator instead measured the add latency chain.
 			for i, r := range rays {
 				out[i] = m.Apply(r)
