@@ -4,7 +4,10 @@
 // The same calls work outside a notebook (go run, go test): they print a
 // plain-text fallback to standard output instead, and figures can be written
 // to files with [SaveSVG]. Every display call waits until the kernel has
-// taken the output (gonbui.Sync), so nothing is lost when a cell ends.
+// taken the output (gonb's sync handshake, as gonbui.Sync), so nothing is
+// lost when a cell ends. The package talks to gonb's pipes with
+// gonbui/protocol and the standard library only (see pipe.go), so a cell
+// that imports it links no more than that.
 //
 // # Figures
 //
@@ -30,7 +33,6 @@ import (
 	"strings"
 
 	"github.com/beamnote/beamnote/kernel/internal/atomicfile"
-	"github.com/janpfeifer/gonb/gonbui"
 	"github.com/janpfeifer/gonb/gonbui/protocol"
 )
 
@@ -46,7 +48,7 @@ func out() io.Writer {
 }
 
 // InNotebook reports whether the program runs as a gonb notebook cell.
-func InNotebook() bool { return gonbui.IsNotebook }
+func InNotebook() bool { return inNotebook }
 
 // Headless reports whether the notebook is being executed without a browser
 // (BEAMNOTE_HEADLESS=1), as under `make test`.
@@ -71,14 +73,11 @@ func SVG(svg []byte, caption string) error {
 		}
 		return nil
 	}
-	gonbui.SendData(&protocol.DisplayData{
-		Data: map[protocol.MIMEType]any{
-			protocol.MIMEImageSVG:  string(svg),
-			protocol.MIMETextHTML:  figureHTML(svg, caption),
-			protocol.MIMETextPlain: "[figure: " + caption + "]",
-		},
+	return send(map[protocol.MIMEType]any{
+		protocol.MIMEImageSVG:  string(svg),
+		protocol.MIMETextHTML:  figureHTML(svg, caption),
+		protocol.MIMETextPlain: "[figure: " + caption + "]",
 	})
-	return sync()
 }
 
 // SaveSVG writes an SVG figure to path atomically.
@@ -112,13 +111,12 @@ func show(data map[protocol.MIMEType]any, plain string) error {
 		fmt.Fprintln(out(), strings.TrimRight(plain, "\n"))
 		return nil
 	}
-	gonbui.SendData(&protocol.DisplayData{Data: data})
-	return sync()
+	return send(data)
 }
 
-func sync() error {
-	gonbui.Sync()
-	if err := gonbui.Error(); err != nil {
+// send sends one display bundle to gonb and waits until gonb has taken it.
+func send(data map[protocol.MIMEType]any) error {
+	if err := kernel.display(&protocol.DisplayData{Data: data}); err != nil {
 		return fmt.Errorf("nb: sending output to the notebook: %w", err)
 	}
 	return nil

@@ -147,8 +147,13 @@ func TestShowAndMust(t *testing.T) {
 	if stopped != 2 || !strings.Contains(stderr.String(), "error: beam: bad") {
 		t.Errorf("Show(v, err): stopped %d, stderr %q", stopped, stderr.String())
 	}
+	stderr.Reset()
+	Show(errors.New("sweep: bad"))
+	if stopped != 3 || !strings.Contains(stderr.String(), "error: sweep: bad") || !strings.Contains(stderr.String(), "  at: nb_test.go:") {
+		t.Errorf("Show(err): stopped %d, stderr %q", stopped, stderr.String())
+	}
 	Check(nil)
-	if stopped != 2 {
+	if stopped != 3 {
 		t.Errorf("Check(nil) stopped the cell")
 	}
 }

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"path/filepath"
 	"runtime"
 	"strings"
 
@@ -67,7 +68,8 @@ func Check(err error) {
 	}
 }
 
-// Show displays v and stops the cell if one of errs is not nil, so that a
+// Show displays v and stops the cell if one of errs is not nil (or v is
+// itself a non-nil error), so that a
 // result and its error can be passed straight from the call that made
 // them: nb.Show(sys.Cardinal(paraxial.Tangential)). It shows
 //
@@ -82,6 +84,9 @@ func Show(v any, errs ...error) {
 		if err != nil {
 			fail(err, 2)
 		}
+	}
+	if err, ok := v.(error); ok && err != nil {
+		fail(err, 2) // nb.Show(err): an error is never shown as a result
 	}
 	if err := show1(v); err != nil {
 		fail(err, 2)
@@ -125,6 +130,9 @@ func fail(err error, skip int) {
 		if src := sourceLine(file, line); src != "" {
 			fmt.Fprintf(w, "  in: %s\n", src)
 		}
+		// The file and line of the generated program, which gonb maps to
+		// the cell and its line.
+		fmt.Fprintf(w, "  at: %s:%d\n", filepath.Base(file), line)
 	}
 	stop()
 }

@@ -29,7 +29,9 @@
 //
 // with the checkout's requirements and go.sum, so cells import any opticslib
 // package with GOPROXY=off and no set-up cell. In the cell module the
-// wrapper also adds [CellGoFlags] to "go build" and "go test", and, with
+// wrapper also adds [CellGoFlags] to "go build" and "go test", adds
+// -tags=minimal unless a Go file of the cell module mentions ".Save" (see
+// cellSVGOnlyFlag), runs them with GOGC=400 (cellBuildGOGC), and, with
 // GOPROXY=off, skips gonb's bare per-cell "go get", which could fetch
 // nothing: the cells' "go build -mod=mod" adds any requirement the module
 // cache holds. Every other invocation, and every invocation outside the cell

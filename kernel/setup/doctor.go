@@ -78,6 +78,9 @@ func Doctor(l Layout, user bool) []Check {
 		{"gopls", goplsPkg, l.GoplsModule(), " (completion, help)"},
 	} {
 		bin := filepath.Join(l.Bin(), tool.name)
+		if tool.name == "gopls" {
+			bin = l.goplsBinary() // .beamnote/bin/gopls is the script that starts it
+		}
 		want, err := l.pinnedVersion(tool.dir, tool.mod)
 		if err == nil {
 			err = checkBuilt(bin, tool.mod, want)

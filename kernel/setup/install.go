@@ -65,7 +65,13 @@ func Install(l Layout, opt InstallOptions, log io.Writer) (string, error) {
 	}
 	fmt.Fprintf(log, "beamnote: building gopls at the version pinned in %s (completion and help in cells; the first build takes a minute)\n",
 		filepath.Join(l.GoplsModule(), "go.mod"))
-	if err := l.run(log, l.GoplsModule(), nil, l.RealGo, "build", "-o", l.Bin()+string(os.PathSeparator), goplsPkg); err != nil {
+	if err := os.MkdirAll(filepath.Dir(l.goplsBinary()), 0o755); err != nil {
+		return "", err
+	}
+	if err := l.run(log, l.GoplsModule(), nil, l.RealGo, "build", "-o", l.goplsBinary(), goplsPkg); err != nil {
+		return "", err
+	}
+	if err := atomicfile.Write(filepath.Join(l.Bin(), "gopls"), l.goplsScript(), 0o755); err != nil {
 		return "", err
 	}
 	if err := atomicfile.Write(l.shimPath(), l.shimScript(), 0o755); err != nil {

@@ -561,8 +561,9 @@ func TestErrorLine(t *testing.T) {
 
 // TestShimAddsCellFlags runs the wrapper over a stand-in for the real go
 // command that records its arguments: in the cell module "go build" and
-// "go test" get CellGoFlags; elsewhere, and for other commands, the
-// arguments pass unchanged.
+// "go test" get CellGoFlags and cellSVGOnlyFlag (no Go file of the cell
+// calls Save here; see TestShimSaveCellsGetWriters); elsewhere, and for
+// other commands, the arguments pass unchanged.
 func TestShimAddsCellFlags(t *testing.T) {
 	state := t.TempDir()
 	record := filepath.Join(state, "args")
@@ -578,8 +579,8 @@ func TestShimAddsCellFlags(t *testing.T) {
 		args []string
 		want string
 	}{
-		{cell, []string{"build", "-o", "bin"}, "build " + CellGoFlags + " -o bin"},
-		{cell, []string{"test", "-c", "-o", "bin"}, "test " + CellGoFlags + " -c -o bin"},
+		{cell, []string{"build", "-o", "bin"}, "build " + CellGoFlags + " " + cellSVGOnlyFlag + " -o bin"},
+		{cell, []string{"test", "-c", "-o", "bin"}, "test " + CellGoFlags + " " + cellSVGOnlyFlag + " -c -o bin"},
 		{cell, []string{"vet", "."}, "vet ."},
 		{other, []string{"build", "-o", "bin"}, "build -o bin"},
 	} {

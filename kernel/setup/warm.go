@@ -48,8 +48,11 @@ func ImportablePackages(l Layout) ([]string, error) {
 
 // Warm compiles, in a cell module with the kernel's environment and flags, a
 // program that imports every package of [ImportablePackages], so that the
-// packages and their dependencies (gonum, gonum/plot, gonbui) sit in the build
-// cache before the first cell.
+// packages and their dependencies (gonum, gonum/plot, gonb's protocol) sit in
+// the build cache before the first cell. It builds the program twice, as
+// cells are built: once as it is (with the wrapper's [cellSVGOnlyFlag]) and
+// once with a reference to optplot's Figure.Save, which the wrapper builds
+// without that tag, with the PNG and PDF writers.
 func Warm(l Layout, log io.Writer) error {
 	dir, err := os.MkdirTemp("", "beamnote-warm-")
 	if err != nil {
@@ -64,18 +67,43 @@ func Warm(l Layout, log io.Writer) error {
 	if err != nil {
 		return err
 	}
+	for _, save := range []bool{false, true} {
+		if err := os.WriteFile(filepath.Join(dir, "main.go"), warmSource(pkgs, save), 0o644); err != nil {
+			return err
+		}
+		// The same two steps gonb takes for every cell: go get, then go build.
+		if err := l.run(log, dir, env, l.shimPath(), "get"); err != nil {
+			return err
+		}
+		if err := l.run(log, dir, env, l.shimPath(), "build", "-o", filepath.Join(dir, "warm")); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
+// optplotPkg is the figure package, whose Figure.Save makes the go wrapper
+// build a cell with the PNG and PDF writers.
+const optplotPkg = ModulePath + "/opticslib/optplot"
+
+// warmSource is the warm-up program: it imports every package of pkgs and,
+// if save is set and optplot is among them, refers to Figure.Save.
+func warmSource(pkgs []string, save bool) []byte {
 	var src bytes.Buffer
 	src.WriteString("// Command warm links every beamnote package once to fill the build cache.\npackage main\n\nimport (\n")
+	saveRef := false
 	for _, p := range pkgs {
+		if save && p == optplotPkg {
+			fmt.Fprintf(&src, "\t%q\n", p)
+			saveRef = true
+			continue
+		}
 		fmt.Fprintf(&src, "\t_ %q\n", p)
 	}
-	src.WriteString(")\n\nfunc main() {}\n")
-	if err := os.WriteFile(filepath.Join(dir, "main.go"), src.Bytes(), 0o644); err != nil {
-		return err
+	src.WriteString(")\n\n")
+	if saveRef {
+		src.WriteString("var _ = optplot.Figure.Save\n\n")
 	}
-	// The same two steps gonb takes for every cell: go get, then go build.
-	if err := l.run(log, dir, env, l.shimPath(), "get"); err != nil {
-		return err
-	}
-	return l.run(log, dir, env, l.shimPath(), "build", "-o", filepath.Join(dir, "warm"))
+	src.WriteString("func main() {}\n")
+	return src.Bytes()
 }
