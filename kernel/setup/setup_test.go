@@ -146,7 +146,10 @@ func shimModInit(t *testing.T, l Layout) string {
 	return cell
 }
 
-func TestShimMakesCellModule(t *testing.T) {
+// shimCell installs the go wrapper in a temporary state directory of this
+// checkout and makes a cell module with it, or skips without a go command.
+func shimCell(t *testing.T) (Layout, string) {
+	t.Helper()
 	goCmd, err := exec.LookPath("go")
 	if err != nil {
 		t.Skip("no go command")
@@ -158,7 +161,11 @@ func TestShimMakesCellModule(t *testing.T) {
 	l.State = t.TempDir()
 	l.RealGo, _ = filepath.Abs(goCmd)
 	installShim(t, l)
-	cell := shimModInit(t, l)
+	return l, shimModInit(t, l)
+}
+
+func TestShimMakesCellModule(t *testing.T) {
+	l, cell := shimCell(t)
 	gomod, _ := os.ReadFile(filepath.Join(cell, "go.mod"))
 	for _, want := range []string{"require " + ModulePath + " v0.0.0", "replace " + ModulePath + " => " + l.Root} {
 		if !strings.Contains(string(gomod), want) {

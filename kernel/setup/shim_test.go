@@ -65,18 +65,7 @@ func TestShimCellSavesPNG(t *testing.T) {
 	if testing.Short() {
 		t.Skip("builds two cell programs")
 	}
-	goCmd, err := exec.LookPath("go")
-	if err != nil {
-		t.Skip("no go command")
-	}
-	l, err := FindLayout(".")
-	if err != nil {
-		t.Fatal(err)
-	}
-	l.State = t.TempDir()
-	l.RealGo, _ = filepath.Abs(goCmd)
-	installShim(t, l)
-	cell := shimModInit(t, l)
+	l, cell := shimCell(t)
 	const prog = `package main
 
 import (
