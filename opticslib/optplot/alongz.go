@@ -140,14 +140,7 @@ func AlongZ(c beam.Caustic, q Quantity, opts ...Option) (Figure, error) {
 			return Figure{}, err
 		}
 	}
-	n := len(c.Z)
-	lo, hi := c.Z[0].Millimeters(), c.Z[n-1].Millimeters()
-	if cfg.hasRange {
-		lo, hi = cfg.z0, cfg.z1
-	}
-	if lo == hi {
-		hi = lo + 1
-	}
+	lo, hi := cfg.zRange(c)
 	envs := make([]envelope, len(all))
 	for i, o := range all {
 		envs[i] = sampleEnvelope(o.c, lo, hi)

@@ -328,13 +328,7 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (Figure, error
 		}
 	}
 	n := len(c.Z)
-	lo, hi := c.Z[0].Millimeters(), c.Z[n-1].Millimeters()
-	if cfg.hasRange {
-		lo, hi = cfg.z0, cfg.z1
-	}
-	if lo == hi {
-		hi = lo + 1
-	}
+	lo, hi := cfg.zRange(c)
 	env := sampleEnvelope(c, lo, hi)
 	if len(env.z) == 0 {
 		return Figure{}, &ParamError{Func: "Caustic", Param: "range shown", Value: strconv.FormatFloat(lo, 'g', 6, 64) + " … " + strconv.FormatFloat(hi, 'g', 6, 64) + " mm",
@@ -585,6 +579,19 @@ func causticCaption(title string, c beam.Caustic, astig bool) string {
 		return title
 	}
 	return title + ". Waists: " + strings.Join(parts, "; ") + "."
+}
+
+// zRange returns the axial range of a figure of c in mm: the option's
+// range, or the caustic's own; never empty.
+func (cfg config) zRange(c beam.Caustic) (lo, hi float64) {
+	lo, hi = c.Z[0].Millimeters(), c.Z[len(c.Z)-1].Millimeters()
+	if cfg.hasRange {
+		lo, hi = cfg.z0, cfg.z1
+	}
+	if lo == hi {
+		hi = lo + 1
+	}
+	return lo, hi
 }
 
 // below formats the transmitted fraction t < threshold as a percentage
