@@ -11,6 +11,9 @@ import (
 // line each, in the units of the study's table. The named quantities must
 // share a unit, so that they can share the y axis.
 func Sweep(r sweep.Result, names ...string) (Figure, error) {
+	if len(r.Quantities) > 0 && r.Values == nil && len(r.Cases) > 0 {
+		return Figure{}, &ParamError{Func: "Sweep", Param: "sweep", Value: r.Parameter, Reason: "is over named cases (sweep.Cases), which have no numeric axis; show its table", Err: ErrSeries}
+	}
 	if len(r.Quantities) == 0 || len(r.Values) == 0 {
 		return Figure{}, &ParamError{Func: "Sweep", Param: "sweep", Reason: "has no cases; make it with sweep.Over", Err: ErrSeries}
 	}

@@ -119,17 +119,20 @@ func Magnification(object units.Length) Quantity {
 // Result is a finished sweep: the parameter values and, for each quantity,
 // its value in every case.
 type Result struct {
-	// Parameter names the swept parameter; Values are its values.
+	// Parameter names the swept parameter; Values are its values when it
+	// is a length ([Over]), and Cases the names of the cases when it is
+	// not ([Cases]; Values is then nil).
 	Parameter string
 	Values    []units.Length
+	Cases     []string
 	// Quantities are the reported quantities; Data[q][i] is quantity q in
 	// case i, in SI units.
 	Quantities []Quantity
 	Data       [][]float64
 }
 
-// ErrNoCases is returned by [Over] for an empty list of values or
-// quantities.
+// ErrNoCases is returned by [Over] and [Cases] for an empty list of
+// values or quantities.
 var ErrNoCases = errors.New("sweep: need at least one parameter value and one quantity")
 
 // Over builds the system for every value of the parameter named param
@@ -137,15 +140,45 @@ var ErrNoCases = errors.New("sweep: need at least one parameter value and one qu
 // naming the parameter value and the quantity that failed, and one for a
 // non-finite value.
 func Over(param string, values []units.Length, build func(units.Length) (paraxial.System, error), qs ...Quantity) (Result, error) {
+	r, err := run(param, values, func(v units.Length) string { return v.String() }, build, qs)
+	if err != nil {
+		return Result{}, err
+	}
+	r.Values = append([]units.Length(nil), values...)
+	return r, nil
+}
+
+// Cases is [Over] for a parameter that is not a length: a part from the
+// drawer, a choice of mirror, a lens of the stock. Each case has a name,
+// given by name(v), which the table shows in the parameter's column:
+//
+//	sweep.Cases("fold mirror", []paraxial.Opening{drawer, inch},
+//		func(o paraxial.Opening) string { return "Ø " + o.Diameter().String() }, path, …)
+func Cases[P any](param string, values []P, name func(P) string, build func(P) (paraxial.System, error), qs ...Quantity) (Result, error) {
+	if name == nil {
+		return Result{}, ErrNoCases
+	}
+	r, err := run(param, values, name, build, qs)
+	if err != nil {
+		return Result{}, err
+	}
+	for _, v := range values {
+		r.Cases = append(r.Cases, name(v))
+	}
+	return r, nil
+}
+
+// run is the one loop of [Over] and [Cases].
+func run[P any](param string, values []P, name func(P) string, build func(P) (paraxial.System, error), qs []Quantity) (Result, error) {
 	if len(values) == 0 || len(qs) == 0 || build == nil {
 		return Result{}, ErrNoCases
 	}
-	r := Result{Parameter: param, Values: append([]units.Length(nil), values...), Quantities: qs, Data: make([][]float64, len(qs))}
+	r := Result{Parameter: param, Quantities: qs, Data: make([][]float64, len(qs))}
 	for q := range qs {
 		r.Data[q] = make([]float64, len(values))
 	}
 	for i, v := range values {
-		where := param + " = " + v.String()
+		where := param + " = " + name(v)
 		sys, err := build(v)
 		if err != nil {
 			return Result{}, &Error{Case: where, Err: err}
@@ -222,14 +255,23 @@ func (r Result) Label(q int) string {
 // digits.
 func (r Result) Table() table.Table {
 	pv, pu := r.ParameterColumn()
-	t := table.Table{Caption: "What if the " + r.Parameter + " changes", Header: []string{r.Parameter + " (" + pu + ")"}}
+	head := r.Parameter + " (" + pu + ")"
+	if r.Values == nil {
+		head = r.Parameter
+	}
+	t := table.Table{Caption: "What if the " + r.Parameter + " changes", Header: []string{head}}
 	cols := make([][]float64, len(r.Quantities))
 	for q := range r.Quantities {
 		cols[q], _ = r.Column(q)
 		t.Header = append(t.Header, r.Label(q))
 	}
-	for i := range r.Values {
-		row := []string{table.Sig(pv[i], 4)}
+	for i := range r.Data[0] {
+		var row []string
+		if r.Values == nil {
+			row = []string{r.Cases[i]}
+		} else {
+			row = []string{table.Sig(pv[i], 4)}
+		}
 		for q := range cols {
 			row = append(row, table.Sig(cols[q][i], 4))
 		}

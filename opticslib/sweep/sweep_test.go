@@ -77,3 +77,25 @@ func ExampleOver() {
 	// 120            2.1             2.106
 	// 122            0.7891          2.04
 }
+
+// A what-if over parts, not lengths: the same lens traded for two from the
+// drawer, the image z from the thin-lens equation as above.
+func TestCases(t *testing.T) {
+	build := func(f units.Length) (paraxial.System, error) {
+		return paraxial.NewBuilder().Space(300 * mm).ThinLens(f).Space(300 * mm).Build()
+	}
+	type lens struct {
+		name string
+		f    units.Length
+	}
+	r, err := sweep.Cases("lens", []lens{{"LA-100", 100 * mm}, {"LA-150", 150 * mm}}, func(l lens) string { return l.name },
+		func(l lens) (paraxial.System, error) { return build(l.f) }, sweep.ImageZ(0))
+	if err != nil {
+		t.Fatal(err)
+	}
+	tb := r.Table()
+	// 300·100/200 = 150 mm behind the lens; 300·150/150 = 300 mm.
+	if tb.Header[0] != "lens" || tb.Rows[0][0] != "LA-100" || tb.Rows[0][1] != "450" || tb.Rows[1][1] != "600" || r.Values != nil {
+		t.Errorf("table = %+v", tb)
+	}
+}
