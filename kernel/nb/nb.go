@@ -122,8 +122,6 @@ func send(data map[protocol.MIMEType]any) error {
 	return nil
 }
 
-func htmlEscape(s string) string { return html.EscapeString(s) }
-
 // figureHTML is the inline-HTML copy of a figure; the caption is escaped
 // for an attribute value.
 func figureHTML(svg []byte, caption string) string {

@@ -3,6 +3,7 @@ package nb
 import (
 	"bufio"
 	"fmt"
+	"html"
 	"io"
 	"os"
 	"path/filepath"
@@ -112,11 +113,13 @@ func show1(v any) error {
 	case string:
 		return Markdown(x)
 	case fmt.Stringer:
-		return HTML("<pre>"+htmlEscape(x.String())+"</pre>", x.String())
+		return preformatted(x.String())
 	}
-	s := fmt.Sprintf("%+v", v)
-	return HTML("<pre>"+htmlEscape(s)+"</pre>", s)
+	return preformatted(fmt.Sprintf("%+v", v))
 }
+
+// preformatted shows plain text as it is, in a <pre> block.
+func preformatted(s string) error { return HTML("<pre>"+html.EscapeString(s)+"</pre>", s) }
 
 // fail prints err with the source line of the caller skip frames up and
 // stops the cell.

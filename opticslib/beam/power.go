@@ -170,9 +170,6 @@ type Clip struct {
 	Tilt    units.Angle
 	// W and WY are the beam radii in x and y at Z, across the beam.
 	W, WY units.Length
-	// Footprint is the x semi-axis of the beam's footprint on the part,
-	// W/cos(Tilt); equal to W at normal incidence.
-	Footprint units.Length
 	// Transmission is the fraction of the power the opening passes,
 	// [Transmission](Opening, Tilt, W, WY).
 	Transmission float64
@@ -183,6 +180,10 @@ type Clip struct {
 	// Low is true when Transmission < MinTransmission.
 	Low bool
 }
+
+// Footprint returns the x semi-axis of the beam's footprint on the part,
+// W/cos(Tilt) in metres; W at normal incidence.
+func (c Clip) Footprint() units.Length { return c.W / units.Length(math.Cos(float64(c.Tilt))) }
 
 // Warning returns a one-line warning when the opening passes less than
 // the threshold, for example
@@ -196,7 +197,7 @@ func (c Clip) Warning() string {
 	}
 	w := "w = " + short(c.W)
 	if c.Tilt != 0 {
-		w = "wx = " + short(c.W) + ", footprint " + short(c.Footprint) + ", wy = " + short(c.WY)
+		w = "wx = " + short(c.W) + ", footprint " + short(c.Footprint()) + ", wy = " + short(c.WY)
 	} else if short(c.WY) != short(c.W) {
 		w = "wx = " + short(c.W) + ", wy = " + short(c.WY)
 	}
@@ -295,7 +296,6 @@ func Clipping(sys paraxial.System, in Input, minTransmission float64) (Clips, er
 		if !finite(float64(c.W)) || !finite(float64(c.WY)) || math.IsNaN(c.Transmission) {
 			return nil, ErrOverflow
 		}
-		c.Footprint = c.W / units.Length(math.Cos(float64(c.Tilt)))
 		c.Low = c.Transmission < c.MinTransmission
 		out = append(out, c)
 		a = next

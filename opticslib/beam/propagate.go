@@ -451,8 +451,8 @@ func SampleRange(sys paraxial.System, in Input, z0, z1 units.Length, n int) (Cau
 	// A round beam through rotationally symmetric elements needs one plane
 	// only: the y results are copies (bit-identical to tracing y).
 	same := a0.X == a0.Y
-	for _, e := range sys.Elements() {
-		same = same && e.X == e.Y
+	for pc := range sys.Walk(0, sys.Length()) {
+		same = same && pc.X == pc.Y
 	}
 	// Walk from min(z0, 0) so that the beam is known at every piece;
 	// samples start at z0. The beam cur holds at position pos.

@@ -104,7 +104,7 @@ func (cs Clips) Table() table.Table {
 			d += " slit"
 		}
 		t.Rows = append(t.Rows, []string{name, table.In(c.Z, units.Millimeter, 1), d, table.Fixed(c.Tilt.Degrees(), 0),
-			table.In(c.W, units.Millimeter, 3), table.In(c.Footprint, units.Millimeter, 3), strconv.FormatFloat(100*c.Transmission, 'f', 2, 64),
+			table.In(c.W, units.Millimeter, 3), table.In(c.Footprint(), units.Millimeter, 3), strconv.FormatFloat(100*c.Transmission, 'f', 2, 64),
 			strconv.FormatFloat(100*c.MinTransmission, 'f', 0, 64), status})
 	}
 	return t

@@ -280,21 +280,13 @@ func (r Result) Table() table.Table {
 	return t
 }
 
-// index returns the position of the quantity named name, or −1.
-func (r Result) index(name string) int {
-	for q, qt := range r.Quantities {
-		if qt.Name == name {
-			return q
-		}
-	}
-	return -1
-}
-
 // Find returns the index of the quantity named name, or an error listing
 // the names there are.
 func (r Result) Find(name string) (int, error) {
-	if q := r.index(name); q >= 0 {
-		return q, nil
+	for q, qt := range r.Quantities {
+		if qt.Name == name {
+			return q, nil
+		}
 	}
 	names := ""
 	for i, qt := range r.Quantities {

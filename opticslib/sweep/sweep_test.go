@@ -88,14 +88,14 @@ func TestCases(t *testing.T) {
 		name string
 		f    units.Length
 	}
-	r, err := sweep.Cases("lens", []lens{{"LA-100", 100 * mm}, {"LA-150", 150 * mm}}, func(l lens) string { return l.name },
+	r, err := sweep.Cases("lens", []lens{{"drawer lens A", 100 * mm}, {"drawer lens B", 150 * mm}}, func(l lens) string { return l.name },
 		func(l lens) (paraxial.System, error) { return build(l.f) }, sweep.ImageZ(0))
 	if err != nil {
 		t.Fatal(err)
 	}
 	tb := r.Table()
 	// 300·100/200 = 150 mm behind the lens; 300·150/150 = 300 mm.
-	if tb.Header[0] != "lens" || tb.Rows[0][0] != "LA-100" || tb.Rows[0][1] != "450" || tb.Rows[1][1] != "600" || r.Values != nil {
+	if tb.Header[0] != "lens" || tb.Rows[0][0] != "drawer lens A" || tb.Rows[0][1] != "450" || tb.Rows[1][1] != "600" || r.Values != nil {
 		t.Errorf("table = %+v", tb)
 	}
 }

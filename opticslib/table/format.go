@@ -8,10 +8,6 @@ import (
 	"github.com/beamnote/beamnote/opticslib/units"
 )
 
-func itoa(i int) string { return strconv.Itoa(i) }
-
-func strconvQuote(s string) string { return strconv.Quote(s) }
-
 // infinite returns "∞" or "−∞" for an infinite v.
 func infinite(v float64) (string, bool) {
 	switch {

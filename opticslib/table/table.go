@@ -12,6 +12,7 @@
 package table
 
 import (
+	"strconv"
 	"strings"
 	"unicode/utf8"
 )
@@ -46,7 +47,7 @@ type RowError struct {
 
 // Error implements the error interface.
 func (e *RowError) Error() string {
-	return "table " + strconvQuote(e.Caption) + ": row " + itoa(e.Row) + " has " + itoa(e.Cells) + " cells, header has " + itoa(e.Header)
+	return "table " + strconv.Quote(e.Caption) + ": row " + strconv.Itoa(e.Row) + " has " + strconv.Itoa(e.Cells) + " cells, header has " + strconv.Itoa(e.Header)
 }
 
 // Cell returns the cell of row i in column j, or "" beyond the row's end.

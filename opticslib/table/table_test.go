@@ -32,6 +32,8 @@ func TestText(t *testing.T) {
 	}
 }
 
+// Number formats of the tables: the project's own conventions (∞ for an
+// infinite value, no "-0"), no outside reference.
 func TestFixed(t *testing.T) {
 	for _, test := range []struct {
 		v    float64
@@ -46,6 +48,7 @@ func TestFixed(t *testing.T) {
 	}
 }
 
+// Each length in the unit that suits it: the project's own convention.
 func TestQuantityAndUnits(t *testing.T) {
 	for _, test := range []struct {
 		l    units.Length
@@ -66,6 +69,8 @@ func TestQuantityAndUnits(t *testing.T) {
 	}
 }
 
+// Significant digits without exponents in the everyday range: the
+// project's own convention.
 func TestSig(t *testing.T) {
 	for _, test := range []struct {
 		v    float64
