@@ -1,6 +1,7 @@
 package paraxial
 
 import (
+	"math"
 	"math/bits"
 	"runtime"
 	"strconv"
@@ -108,7 +109,11 @@ func (s System) TraceBulk(p Plane, ys, thetas, heights, angles []float64, blocke
 	if n == 0 {
 		return nil
 	}
-	args := bulkArgs{s: s, p: p, n: n, ys: ys, thetas: thetas, heights: heights, angles: angles, blocked: blocked}
+	prog := bulkPrograms.Get().(*[]bulkOp)
+	*prog = s.program(p, blocked != nil, *prog)
+	defer bulkPrograms.Put(prog)
+	args := bulkArgs{n: n, ys: ys, thetas: thetas, heights: heights, angles: angles, blocked: blocked, ops: *prog}
+	args.stream = streamable(heights, n) && (angles == nil || streamable(angles, n))
 	workers := procs
 	if procs <= 0 {
 		workers = min(runtime.GOMAXPROCS(0), n/BulkSplitRays)
@@ -133,13 +138,86 @@ func (s System) TraceBulk(p Plane, ys, thetas, heights, angles []float64, blocke
 	return ErrOverflow
 }
 
-// bulkArgs are the arguments of one call of [System.TraceBulk].
+// bulkArgs are the arguments of one call of [System.TraceBulk], with the
+// element program it traces.
 type bulkArgs struct {
-	s                           System
-	p                           Plane
 	n                           int
 	ys, thetas, heights, angles []float64
 	blocked                     RayMask
+	ops                         []bulkOp // one per row, then opEnd
+	stream                      bool     // the vector kernel's non-temporal stores
+}
+
+// The kinds of [bulkOp].
+const (
+	opCopy    = iota // the walk left the element out: y and θ pass unchanged
+	opSpace          // y + b·θ; θ unchanged; tested on arrival and on leaving
+	opLens           // y unchanged; θ = c·y + d·θ; tested on arrival
+	opSurface        // y = a·y + b·θ, θ = c·y + d·θ; tested on arrival
+	opEnd            // after the last row
+)
+
+// bulkOp is what one element does to a ray in the bulk trace: the row
+// program that both the portable kernels below and the vector kernel
+// (bulk_amd64.s, which reads this layout by offset) run. Each coefficient
+// is held four times, one per lane of a 256-bit register. An element
+// without a test (no clear aperture, or no mask wanted) has lo = −∞ and
+// hi = +∞, so that the vector kernel can test every element without a
+// branch: no height lies outside, NaN neither.
+type bulkOp struct {
+	kind, test         uint64
+	a, b, c, d, lo, hi [4]float64
+}
+
+// bulkOpBytes is the size of a bulkOp, the stride of the vector kernel's
+// program.
+const bulkOpBytes = 208
+
+func quad(v float64) [4]float64 { return [4]float64{v, v, v, v} }
+
+// bulkPrograms recycles the row programs, so that a trace allocates
+// nothing once a program of its length has been made.
+var bulkPrograms = sync.Pool{New: func() any { return new([]bulkOp) }}
+
+// program writes to buf (reused if long enough) the row program of the
+// full range [0, Length()] of the one walk (System.walker) in plane p:
+// every element once, in order, spaces clipped by its boundary rule, the
+// elements it leaves out as copies, then opEnd. tested chooses whether
+// clear apertures are tested.
+func (s *System) program(p Plane, tested bool, buf []bulkOp) []bulkOp {
+	ops := buf[:0]
+	inf := math.Inf(1)
+	for w := s.walker(0, s.length); w.next(); {
+		pc := &w.pc
+		e := pc.e
+		if e == nil {
+			continue // no input or output medium inside [0, Length()]
+		}
+		for len(ops) < pc.i {
+			ops = append(ops, bulkOp{kind: opCopy})
+		}
+		op := bulkOp{lo: quad(-inf), hi: quad(inf)}
+		if l := e.lim[p&1]; l.ok && tested {
+			op.test, op.lo, op.hi = 1, quad(l.lo), quad(l.hi)
+		}
+		switch mx := e.matrix(p); {
+		case e.Kind == KindSpace:
+			// Space(d).Apply: y + d·θ (the product 1·y is exact); θ is
+			// unchanged.
+			op.kind, op.b = opSpace, quad(float64(pc.to-pc.from))
+		case mx.A == 1 && mx.B == 0:
+			// A lens or an interface at normal incidence: y is unchanged
+			// (1·y + 0·θ = y).
+			op.kind, op.c, op.d = opLens, quad(mx.C), quad(mx.D)
+		default:
+			op.kind, op.a, op.b, op.c, op.d = opSurface, quad(mx.A), quad(mx.B), quad(mx.C), quad(mx.D)
+		}
+		ops = append(ops, op)
+	}
+	for len(ops) < len(s.elems) {
+		ops = append(ops, bulkOp{kind: opCopy})
+	}
+	return append(ops, bulkOp{kind: opEnd})
 }
 
 // bulkJob is a call of [System.TraceBulk] shared between goroutines.
@@ -204,10 +282,18 @@ func split(a *bulkArgs, workers, tiles int) bool {
 	return bad
 }
 
-// trace traces rays [lo, hi) (lo a multiple of bulkTile) tile by tile and
-// reports whether a ray was not finite at the output plane (a non-finite
-// height or angle stays non-finite through every later matrix).
+// trace traces rays [lo, hi) (lo a multiple of bulkTile) and reports
+// whether a ray was not finite at the output plane (a non-finite height
+// or angle stays non-finite through every later matrix). The vector
+// kernel, where the processor has one, takes the whole words of 64 rays;
+// the portable kernels take the rest, tile by tile.
 func (j *bulkArgs) trace(lo, hi int) bool {
+	bad := false
+	if useBulkVector {
+		k := (hi - lo) &^ 63
+		bad = j.vector(lo, lo+k)
+		lo += k
+	}
 	var th [bulkTile]float64
 	var mask [bulkTile / 64]uint64
 	var acc float64 // 0, or NaN once a ray is not finite
@@ -224,72 +310,47 @@ func (j *bulkArgs) trace(lo, hi int) bool {
 			copy(j.blocked[t0>>6:maskWords(t0+m)], mask[:])
 		}
 	}
-	return acc != acc
+	return bad || acc != acc
 }
 
 // tile traces the rays of the tile starting at ray t0, with angles th,
-// through every element, element by element: each element's heights are
-// computed from the row before it (the input heights for the first) and
-// written to its row, th is updated in place, and the mask bits of the
-// vignetted rays are set. It returns the heights at the output plane.
+// through the row program, row by row: each row's heights are computed
+// from the row before it (the input heights for the first) and written to
+// its row, th is updated in place, and the mask bits of the vignetted
+// rays are set. It returns the heights at the output plane.
 func (j *bulkArgs) tile(t0 int, th []float64, mask *[bulkTile / 64]uint64) []float64 {
-	s, n, m := &j.s, j.n, len(th)
+	n, m := j.n, len(th)
 	prev := j.ys[t0 : t0+m]
-	row := 0 // the next row to write
-	emit := func() {
-		if j.angles != nil {
-			copy(j.angles[row*n+t0:][:m], th)
-		}
-		prev = j.heights[row*n+t0:][:m]
-		row++
-	}
-	// The full range [0, Length()] of the one walk (System.walker): every
-	// element once, spaces clipped by the boundary rule clip.
-	for w := s.walker(0, s.length); w.next(); {
-		pc := &w.pc
-		e := pc.e
-		if e == nil {
-			continue // no input or output medium inside [0, Length()]
-		}
-		// Elements before this one that the walk left out: the ray passes
-		// them unchanged.
-		for row < pc.i {
-			copy(j.heights[row*n+t0:][:m], prev)
-			emit()
-		}
+	for row, op := range j.ops[:len(j.ops)-1] {
 		out := j.heights[row*n+t0:][:m]
-		l := e.lim[j.p&1]
-		test := l.ok && j.blocked != nil
-		switch mx := e.matrix(j.p); {
-		case e.Kind == KindSpace:
-			// Space(d).Apply: y + d·θ (the product 1·y is exact); θ is
-			// unchanged.
-			d := float64(pc.to - pc.from)
+		test := op.test != 0
+		switch op.kind {
+		case opCopy:
+			copy(out, prev)
+		case opSpace:
 			if test {
-				bulkSpaceTested(prev, th, out, d, l.lo, l.hi, mask)
+				bulkSpaceTested(prev, th, out, op.b[0], op.lo[0], op.hi[0], mask)
 			} else {
-				bulkSpace(prev, th, out, d)
+				bulkSpace(prev, th, out, op.b[0])
 			}
-		case mx.A == 1 && mx.B == 0:
-			// A lens or an interface at normal incidence: y is unchanged
-			// (1·y + 0·θ = y).
+		case opLens:
 			if test {
-				bulkLensTested(prev, th, out, mx.C, mx.D, l.lo, l.hi, mask)
+				bulkLensTested(prev, th, out, op.c[0], op.d[0], op.lo[0], op.hi[0], mask)
 			} else {
-				bulkLens(prev, th, out, mx.C, mx.D)
+				bulkLens(prev, th, out, op.c[0], op.d[0])
 			}
 		default:
+			mx := Matrix{A: op.a[0], B: op.b[0], C: op.c[0], D: op.d[0]}
 			if test {
-				bulkSurfaceTested(prev, th, out, mx, l.lo, l.hi, mask)
+				bulkSurfaceTested(prev, th, out, mx, op.lo[0], op.hi[0], mask)
 			} else {
 				bulkSurface(prev, th, out, mx)
 			}
 		}
-		emit()
-	}
-	for row < len(s.elems) {
-		copy(j.heights[row*n+t0:][:m], prev)
-		emit()
+		if j.angles != nil {
+			copy(j.angles[row*n+t0:][:m], th)
+		}
+		prev = out
 	}
 	return prev
 }

@@ -56,6 +56,36 @@ func BenchmarkTraceBulk(b *testing.B) {
 	}
 }
 
+// BenchmarkTraceBulkStores compares the vector kernel's ordinary and
+// non-temporal stores (bulkStreamBytes) on one core, for rows that fit in
+// a large last-level cache (80 MB) and rows that do not (320 MB).
+func BenchmarkTraceBulkStores(b *testing.B) {
+	if !useBulkVector {
+		b.Skip("no vector kernel on this platform")
+	}
+	s := benchBulkSystem(b)
+	rng := rand.New(rand.NewPCG(3, 3))
+	for _, n := range []int{1_000_000, 4_000_000} {
+		ys, thetas := make([]float64, n), make([]float64, n)
+		for k := range n {
+			ys[k], thetas[k] = 1e-3*rng.Float64(), 1e-3*rng.Float64()
+		}
+		heights := aligned32(s.Len() * n)
+		mask := NewRayMask(n)
+		for _, stream := range []bool{false, true} {
+			b.Run("rows="+strconv.Itoa(8*len(heights)>>20)+"MB/stream="+strconv.FormatBool(stream), func(b *testing.B) {
+				a := bulkArgs{n: n, ys: ys, thetas: thetas, heights: heights, blocked: mask,
+					ops: s.program(Tangential, true, nil), stream: stream}
+				b.SetBytes(int64(16*n + 8*len(heights) + 8*len(mask)))
+				b.ReportAllocs()
+				for b.Loop() {
+					a.trace(0, n)
+				}
+			})
+		}
+	}
+}
+
 var sinkFloats []float64
 
 // BenchmarkMemoryCopy measures this machine's copy bandwidth on slices far

@@ -6,6 +6,7 @@ import (
 	"math/rand/v2"
 	"strconv"
 	"testing"
+	"unsafe"
 
 	"github.com/beamnote/beamnote/opticslib/units"
 )
@@ -182,6 +183,65 @@ func TestTraceBulkSplitsLargeBatches(t *testing.T) {
 	checkBulkAgainstTrace(t, "split sample", s, Tangential, ys[:2000], thetas[:2000], 2)
 }
 
+func TestTraceBulkVectorMatchesPortable(t *testing.T) {
+	// The vector kernel (where the processor has one) against the portable
+	// kernels on the same program: same products, same sums, so the same
+	// bits, with ordinary and with non-temporal stores, for finite rays
+	// and for the non-finite ones an overflowing trace leaves (NaN
+	// propagation is the same in scalar and packed arithmetic).
+	if !useBulkVector {
+		t.Skip("no vector kernel on this platform")
+	}
+	defer func() { useBulkVector = true }()
+	rng := rand.New(rand.NewPCG(5, 5))
+	for c := range 20 {
+		s := randomApertureSystem(t, rng, 1+rng.IntN(15))
+		n := 64 * (1 + rng.IntN(40))
+		ys, thetas := randomRays(rng, n)
+		ys[rng.IntN(n)], thetas[rng.IntN(n)] = math.Inf(1), 1e300
+		ys[rng.IntN(n)] = math.NaN()
+		ys[rng.IntN(n)], thetas[rng.IntN(n)] = math.Copysign(0, -1), math.Copysign(0, -1)
+		m := s.Len()
+		run := func(vector, stream bool) ([]float64, []float64, RayMask, bool) {
+			useBulkVector = vector
+			h, a := aligned32(m*n), aligned32(m*n)
+			mask := NewRayMask(n)
+			args := bulkArgs{n: n, ys: ys, thetas: thetas, heights: h, angles: a, blocked: mask,
+				ops: s.program(Sagittal, true, nil), stream: stream}
+			return h, a, mask, args.trace(0, n)
+		}
+		wh, wa, wm, wbad := run(false, false)
+		for _, stream := range []bool{false, true} {
+			h, a, mask, bad := run(true, stream)
+			name := "case " + strconv.Itoa(c) + " stream=" + strconv.FormatBool(stream)
+			if bad != wbad {
+				t.Errorf("%s: vector kernel reports non-finite = %v, portable %v", name, bad, wbad)
+			}
+			for i := range wh {
+				if math.Float64bits(h[i]) != math.Float64bits(wh[i]) || math.Float64bits(a[i]) != math.Float64bits(wa[i]) {
+					t.Errorf("%s: value %d = (%g, %g), portable (%g, %g)", name, i, h[i], a[i], wh[i], wa[i])
+					break
+				}
+			}
+			for i := range wm {
+				if mask[i] != wm[i] {
+					t.Errorf("%s: mask word %d = %#x, portable %#x", name, i, mask[i], wm[i])
+					break
+				}
+			}
+		}
+	}
+}
+
+// aligned32 returns n float64s that start on a 32-byte boundary, as the
+// non-temporal stores need (Go's small allocations are aligned to their
+// size class only).
+func aligned32(n int) []float64 {
+	buf := make([]float64, n+3)
+	off := int(uintptr(unsafe.Pointer(&buf[0]))%32) / 8
+	return buf[(4-off)%4:][:n]
+}
+
 func TestTraceBulkOptionalOutputs(t *testing.T) {
 	// nil angles and a nil mask leave the heights unchanged (identity of
 	// the arithmetic with and without the optional outputs).
@@ -206,7 +266,7 @@ func TestTraceBulkOptionalOutputs(t *testing.T) {
 
 func TestTraceBulkErrors(t *testing.T) {
 	s := mustBuild(t, NewBuilder().Space(0.1).ThinLens(0.05).Space(0.1))
-	h := make([]float64, 3*2)
+	h := make([]float64, 3*128)
 	for _, test := range []struct {
 		name      string
 		sys       System
@@ -219,6 +279,8 @@ func TestTraceBulkErrors(t *testing.T) {
 		{"NaN height", s, Tangential, []float64{math.NaN(), 0}, []float64{0, 0}, ErrNonFinite},
 		{"infinite angle", s, Tangential, []float64{0, 0}, []float64{0, math.Inf(-1)}, ErrNonFinite},
 		{"overflow", s, Tangential, []float64{1e308, 0}, []float64{1e308, 0}, ErrOverflow},
+		// 128 rays: whole words, traced by the vector kernel where there is one.
+		{"overflow, 128 rays", s, Tangential, append(make([]float64, 127), 1e308), append(make([]float64, 127), 1e308), ErrOverflow},
 	} {
 		hh := h[:test.sys.Len()*len(test.ys)]
 		if err := test.sys.TraceBulk(test.p, test.ys, test.thets, hh, nil, nil, 1); !errors.Is(err, test.want) {
