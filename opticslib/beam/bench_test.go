@@ -29,11 +29,21 @@ func BenchmarkSample(b *testing.B) {
 	if err != nil {
 		b.Fatal(err)
 	}
-	for _, n := range []int{1_000, 10_000} {
-		b.Run("elements=20/samples="+strconv.Itoa(n), func(b *testing.B) {
+	// An astigmatic beam (separate waists, M² 1.3 in y) needs both planes.
+	ast, err := FromWaists(WaistSpec{WaistRadius: 0.5 * mm, Wavelength: 1064 * nm},
+		WaistSpec{WaistRadius: 0.3 * mm, WaistZ: 20 * mm, Wavelength: 1064 * nm, M2: 1.3})
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, c := range []struct {
+		name string
+		in   Input
+		n    int
+	}{{"round", in, 1_000}, {"round", in, 10_000}, {"astigmatic", ast, 10_000}} {
+		b.Run("elements=20/"+c.name+"/samples="+strconv.Itoa(c.n), func(b *testing.B) {
 			b.ReportAllocs()
 			for b.Loop() {
-				c, err := Sample(sys, in, n)
+				c, err := Sample(sys, c.in, c.n)
 				if err != nil {
 					b.Fatal(err)
 				}

@@ -313,10 +313,11 @@ func TestCrossCheckGouy(t *testing.T) {
 		if err != nil {
 			t.Fatalf("Sample error: %v", err)
 		}
-		gouy := make([]float64, len(c.Gouy))
+		gx, _ := c.GouyPhase()
+		gouy := make([]float64, len(gx))
 		zs := make([]float64, len(c.Z))
 		for i := range c.Z {
-			gouy[i], zs[i] = float64(c.Gouy[i]), float64(c.Z[i])
+			gouy[i], zs[i] = float64(gx[i]), float64(c.Z[i])
 		}
 		samples = append(samples, gouy)
 		cases = append(cases, xcBeamCase{NIn: 1, Lambda0: 1064e-9, QIn: [2]float64{real(g.Q), imag(g.Q)}, Elements: els, Z: []float64{}, GouyZ: zs})

@@ -328,12 +328,6 @@ type Caustic struct {
 	// 1/m: 0 at a waist and finite everywhere, unlike R (see
 	// [Gaussian.WavefrontCurvature]).
 	Curvature, CurvatureY []float64
-	// Gouy and GouyY hold the on-axis Gouy phase of each plane,
-	// accumulated from Z[0] element by element, not reduced modulo 2π.
-	// For a beam that is astigmatic the total on-axis Gouy phase of the
-	// fundamental mode is (Gouy + GouyY)/2 (Siegman, Lasers, ch. 20 [from
-	// memory]); for a round beam it is Gouy.
-	Gouy, GouyY []units.Angle
 	// Index holds the refractive index at each sample.
 	Index []float64
 	// ElementZ holds the entrance position of every element of the
@@ -347,6 +341,53 @@ type Caustic struct {
 	// exact maxima of [Caustic.Irradiance].
 	sys paraxial.System
 	in  Astigmatic
+	// The homogeneous stretches of the samples, for [Caustic.GouyPhase];
+	// g0 the phases of the first sample, same whether y equals x.
+	stretches []sampled
+	g0        [2]float64
+	same      bool
+}
+
+// sampled is the stretch of a caustic's samples k0 … k1−1, which lie at
+// distance Z[k] − from into the stretches x and y.
+type sampled struct {
+	k0, k1 int
+	from   float64
+	x, y   stretch
+}
+
+// GouyPhase returns the on-axis Gouy phase of each plane at every sample
+// (radians), accumulated from Z[0] element by element, not reduced modulo
+// 2π: ψ(z) = ψ(z₀) + arctan(Re q(z)/zR) − arctan(Re q(z₀)/zR) within a
+// space and the shift of [Gaussian.GouyShift] at a surface (Kogelnik & Li
+// 1966). For a beam that is astigmatic the total on-axis Gouy phase of
+// the fundamental mode is (x + y)/2 (Siegman, Lasers, ch. 20 [from
+// memory]); for a round beam it is x, and y equals x.
+//
+// It is computed when asked, from the closed forms [Sample] kept: the
+// arctangent per sample and plane costs more than w and 1/R together,
+// and only a Gouy-phase plot or a mode-spacing study needs it. It returns
+// nil slices for a Caustic that [Sample] or [SampleRange] did not make.
+func (c Caustic) GouyPhase() (x, y []units.Angle) {
+	if c.stretches == nil {
+		return nil, nil
+	}
+	m := len(c.Z)
+	g := make([]units.Angle, 2*m)
+	x, y = g[0:m:m], g[m:]
+	for _, st := range c.stretches {
+		for k := st.k0; k < st.k1; k++ {
+			d := float64(c.Z[k]) - st.from
+			x[k] = units.Angle(st.x.gouy(d) - c.g0[0])
+			if !c.same {
+				y[k] = units.Angle(st.y.gouy(d) - c.g0[1])
+			}
+		}
+	}
+	if c.same {
+		copy(y, x)
+	}
+	return x, y
 }
 
 // MaxSamples is the largest sample count [Sample] and [SampleRange]
@@ -402,7 +443,7 @@ func SampleRange(sys paraxial.System, in Input, z0, z1 units.Length, n int) (Cau
 
 	// The grid: n equally spaced points merged with the surface positions
 	// and the real waists, in increasing order, without duplicates.
-	c := Caustic{ElementZ: make([]units.Length, 0, sys.Len()), sys: sys, in: a0}
+	c := Caustic{ElementZ: make([]units.Length, 0, sys.Len()), sys: sys, in: a0, stretches: make([]sampled, 0, sys.Len()+2)}
 	var extra []float64
 	for pc := range sys.Walk(0, sys.Length()) {
 		c.ElementZ = append(c.ElementZ, pc.From)
@@ -445,8 +486,6 @@ func SampleRange(sys paraxial.System, in Input, z0, z1 units.Length, n int) (Cau
 	c.W, c.WY = lens[0:m:m], lens[m:]
 	curv := make([]float64, 3*m)
 	c.Curvature, c.CurvatureY, c.Index = curv[0:m:m], curv[m:2*m:2*m], curv[2*m:]
-	gouy := make([]units.Angle, 2*m)
-	c.Gouy, c.GouyY = gouy[0:m:m], gouy[m:]
 
 	// A round beam through rotationally symmetric elements needs one plane
 	// only: the y results are copies (bit-identical to tracing y).
@@ -454,6 +493,7 @@ func SampleRange(sys paraxial.System, in Input, z0, z1 units.Length, n int) (Cau
 	for pc := range sys.Walk(0, sys.Length()) {
 		same = same && pc.X == pc.Y
 	}
+	c.same = same
 	// Walk from min(z0, 0) so that the beam is known at every piece;
 	// samples start at z0. The beam cur holds at position pos.
 	start := min(z0, 0)
@@ -462,21 +502,39 @@ func SampleRange(sys paraxial.System, in Input, z0, z1 units.Length, n int) (Cau
 		cur = a0.Transform(paraxial.Space(z0), paraxial.Space(z0), a0.X.Index)
 	}
 	var gx, gy float64 // Gouy phase accumulated at pos
+	// Every output is checked in one sum: v − v is 0 for a finite v and
+	// NaN otherwise; and the smallest radius must be positive.
+	var bad float64
+	minW := units.Length(math.Inf(1))
 	k := 0
 	emit := func(to units.Length, inclusive bool, from units.Length) {
 		if k >= m || !(zs[k] < to || (inclusive && zs[k] == to)) {
 			return
 		}
-		sx, sy := newStretch(cur.X, gx), newStretch(cur.Y, gy)
+		st := sampled{k0: k, from: float64(from), x: newStretch(cur.X, gx), y: newStretch(cur.Y, gy)}
+		bad += st.x.base - st.x.base + st.y.base - st.y.base
 		for k < m && (zs[k] < to || (inclusive && zs[k] == to)) {
 			d := float64(zs[k] - from)
-			c.W[k], c.Curvature[k], c.Gouy[k] = sx.at(d)
+			w, curv := st.x.at(d)
+			c.W[k], c.Curvature[k] = w, curv
 			c.Index[k] = cur.X.Index
+			v := float64(w) + curv
+			bad += v - v
+			minW = min(minW, w)
 			if !same {
-				c.WY[k], c.CurvatureY[k], c.GouyY[k] = sy.at(d)
+				w, curv := st.y.at(d)
+				c.WY[k], c.CurvatureY[k] = w, curv
+				v := float64(w) + curv
+				bad += v - v
+				minW = min(minW, w)
 			}
 			k++
 		}
+		st.k1 = k
+		if st.k0 == 0 {
+			c.g0 = [2]float64{st.x.gouy(float64(zs[0] - from)), st.y.gouy(float64(zs[0] - from))}
+		}
+		c.stretches = append(c.stretches, st)
 	}
 	advance := func(d float64) {
 		if d == 0 {
@@ -503,20 +561,12 @@ func SampleRange(sys paraxial.System, in Input, z0, z1 units.Length, n int) (Cau
 		}
 	}
 	emit(z1, true, z1)
+	if bad != 0 || !(minW > 0) {
+		return Caustic{}, ErrOverflow
+	}
 	if same {
 		copy(c.WY, c.W)
 		copy(c.CurvatureY, c.Curvature)
-		copy(c.GouyY, c.Gouy)
-	}
-	// Gouy phases relative to the first sample.
-	g0x, g0y := c.Gouy[0], c.GouyY[0]
-	for i := range m {
-		c.Gouy[i] -= g0x
-		c.GouyY[i] -= g0y
-		if !finite(float64(c.W[i])) || !(c.W[i] > 0) || !finite(float64(c.WY[i])) || !(c.WY[i] > 0) ||
-			!finite(float64(c.Gouy[i])) || !finite(float64(c.GouyY[i])) || !finite(c.Curvature[i]) || !finite(c.CurvatureY[i]) {
-			return Caustic{}, ErrOverflow
-		}
 	}
 	return c, nil
 }
@@ -538,13 +588,16 @@ func newStretch(g Gaussian, g0 float64) stretch {
 	return stretch{z0: z0, zR: zR, k: math.Sqrt(g.lambda() / (math.Pi * zR)), base: g0 - math.Atan(z0/zR)}
 }
 
-// at returns the radius, wavefront curvature and Gouy phase at distance d
-// into the stretch.
-func (s stretch) at(d float64) (units.Length, float64, units.Angle) {
+// at returns the radius and wavefront curvature at distance d into the
+// stretch.
+func (s stretch) at(d float64) (units.Length, float64) {
 	z := s.z0 + d
 	r2 := float64(z*z) + float64(s.zR*s.zR)
-	return units.Length(s.k * math.Sqrt(r2)), z / r2, units.Angle(s.base + math.Atan(z/s.zR))
+	return units.Length(s.k * math.Sqrt(r2)), z / r2
 }
+
+// gouy returns the Gouy phase at distance d into the stretch.
+func (s stretch) gouy(d float64) float64 { return s.base + math.Atan((s.z0+d)/s.zR) }
 
 // gouyStep is the Gouy phase of a free-space step d from beam g:
 // arctan(z2/zR) − arctan(z1/zR) (Kogelnik & Li 1966).

@@ -143,7 +143,7 @@ func AlongZ(c beam.Caustic, q Quantity, opts ...Option) (Figure, error) {
 	lo, hi := cfg.zRange(c)
 	envs := make([]envelope, len(all))
 	for i, o := range all {
-		envs[i] = sampleEnvelope(o.c, lo, hi)
+		envs[i] = sampleEnvelope(o.c, lo, hi, q.kind == qGouy)
 		if len(envs[i].z) == 0 {
 			return Figure{}, &ParamError{Func: "AlongZ", Param: "range shown", Value: strconv.FormatFloat(lo, 'g', 6, 64) + " … " + strconv.FormatFloat(hi, 'g', 6, 64) + " mm",
 				Reason: "lies outside the caustic's samples, " + o.c.Z[0].String() + " … " + o.c.Z[len(o.c.Z)-1].String(), Err: ErrOption}
@@ -295,15 +295,9 @@ func checkQuantity(fn, name string, c beam.Caustic, q Quantity) error {
 			}{"CurvatureY", len(c.CurvatureY)})
 		}
 	case qGouy:
-		lens = append(lens, struct {
-			param string
-			got   int
-		}{"Gouy", len(c.Gouy)})
-		if c.WY != nil {
-			lens = append(lens, struct {
-				param string
-				got   int
-			}{"GouyY", len(c.GouyY)})
+		// Finite wherever Sample made the caustic; unknown otherwise.
+		if gx, _ := c.GouyPhase(); gx == nil {
+			return &ParamError{Func: fn, Param: name + ".GouyPhase()", Value: "nil", Reason: "is known only for a caustic made by beam.Sample or beam.SampleRange", Err: ErrCaustic}
 		}
 	case qRadius, qEllipticity, qIrradiance:
 	}
@@ -315,9 +309,6 @@ func checkQuantity(fn, name string, c beam.Caustic, q Quantity) error {
 	for i := range n {
 		if q.kind == qCurvature && (!finite(c.Curvature[i]) || (c.WY != nil && !finite(c.CurvatureY[i]))) {
 			return &ParamError{Func: fn, Param: name + ".Curvature[" + strconv.Itoa(i) + "]", Value: "non-finite", Reason: "must be finite (1/m)", Err: ErrCaustic}
-		}
-		if q.kind == qGouy && (!finite(float64(c.Gouy[i])) || (c.WY != nil && !finite(float64(c.GouyY[i])))) {
-			return &ParamError{Func: fn, Param: name + ".Gouy[" + strconv.Itoa(i) + "]", Value: "non-finite", Reason: "must be finite (rad)", Err: ErrCaustic}
 		}
 		if (q.kind == qEllipticity || q.kind == qIrradiance) && !(c.W[i] > 0 && wyAt(c, i) > 0) {
 			return &ParamError{Func: fn, Param: name + ".W[" + strconv.Itoa(i) + "]", Value: c.W[i].String(), Reason: "beam radii must be positive for the " + q.String(), Err: ErrCaustic}

@@ -329,7 +329,7 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (Figure, error
 	}
 	n := len(c.Z)
 	lo, hi := cfg.zRange(c)
-	env := sampleEnvelope(c, lo, hi)
+	env := sampleEnvelope(c, lo, hi, false)
 	if len(env.z) == 0 {
 		return Figure{}, &ParamError{Func: "Caustic", Param: "range shown", Value: strconv.FormatFloat(lo, 'g', 6, 64) + " … " + strconv.FormatFloat(hi, 'g', 6, 64) + " mm",
 			Reason: "lies outside the caustic's samples, " + c.Z[0].String() + " … " + c.Z[n-1].String(), Err: ErrOption}
@@ -339,7 +339,7 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (Figure, error
 	wmax := env.maxIn(lo, hi)
 	overlays := make([]envelope, len(cfg.also))
 	for i, o := range cfg.also {
-		overlays[i] = sampleEnvelope(o.c, lo, hi)
+		overlays[i] = sampleEnvelope(o.c, lo, hi, false)
 		wmax = math.Max(wmax, overlays[i].maxIn(lo, hi))
 	}
 	if !(wmax > 0) {

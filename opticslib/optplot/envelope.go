@@ -6,6 +6,7 @@ import (
 	"gonum.org/v1/plot/plotter"
 
 	"github.com/beamnote/beamnote/opticslib/beam"
+	"github.com/beamnote/beamnote/opticslib/units"
 )
 
 // minShown is the number of sample intervals below which the part of a
@@ -30,7 +31,7 @@ type envelope struct {
 // lie at every element), and 1/R from the same quadratic; Gouy phases are
 // interpolated linearly. Without curvatures w is interpolated linearly.
 // The result is empty when [lo, hi] misses the samples.
-func sampleEnvelope(c beam.Caustic, lo, hi float64) envelope {
+func sampleEnvelope(c beam.Caustic, lo, hi float64, gouy bool) envelope {
 	n := len(c.Z)
 	var e envelope
 	if n < 2 || hi < c.Z[0].Millimeters() || lo > c.Z[n-1].Millimeters() {
@@ -52,10 +53,14 @@ func sampleEnvelope(c beam.Caustic, lo, hi float64) envelope {
 		k = min(1000, (minShown+iv-1)/iv)
 	}
 	hasC := len(c.Curvature) == n && (c.WY == nil || len(c.CurvatureY) == n)
-	hasG := len(c.Gouy) == n && (c.WY == nil || len(c.GouyY) == n)
-	curvY, gouyY := c.Curvature, c.Gouy
+	var gouyX, gouyY []units.Angle
+	if gouy {
+		gouyX, gouyY = c.GouyPhase()
+	}
+	hasG := len(gouyX) == n
+	curvY := c.Curvature
 	if c.WY != nil {
-		curvY, gouyY = c.CurvatureY, c.GouyY
+		curvY = c.CurvatureY
 	}
 	push := func(z, wx, wy, cx, cy, gx, gy float64) {
 		e.z, e.wx, e.wy = append(e.z, z*1e3), append(e.wx, wx*1e3), append(e.wy, wy*1e3)
@@ -72,7 +77,7 @@ func sampleEnvelope(c beam.Caustic, lo, hi float64) envelope {
 			cx, cy = c.Curvature[i], curvY[i]
 		}
 		if hasG {
-			gx, gy = float64(c.Gouy[i]), float64(gouyY[i])
+			gx, gy = float64(gouyX[i]), float64(gouyY[i])
 		}
 		return
 	}

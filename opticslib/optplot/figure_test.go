@@ -294,7 +294,7 @@ func TestZoom(t *testing.T) {
 	if f.Plot.Y.Max > 0.1 || f.Plot.Y.Max < 0.0339 {
 		t.Errorf("y max = %g mm, want between the waist 0.0339 mm and 0.1 mm", f.Plot.Y.Max)
 	}
-	env := sampleEnvelope(c, 98, 102)
+	env := sampleEnvelope(c, 98, 102, false)
 	if len(env.z) < minShown {
 		t.Errorf("zoom has %d points, want at least %d", len(env.z), minShown)
 	}
