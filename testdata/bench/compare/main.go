@@ -307,4 +307,3 @@ func sumL(v []units.Length) float64 {
 	}
 	return s
 }
-
