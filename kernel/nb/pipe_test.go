@@ -7,12 +7,16 @@ import (
 	"os"
 	"path/filepath"
 	"reflect"
+	"strings"
 	"sync"
 	"syscall"
 	"testing"
 
 	"github.com/janpfeifer/gonb/gonbui"
 	"github.com/janpfeifer/gonb/gonbui/protocol"
+
+	"github.com/beamnote/beamnote/opticslib/target"
+	"github.com/beamnote/beamnote/opticslib/units"
 )
 
 // fakeGonb plays gonb v0.11.4's side of the cell pipes the way its
@@ -224,5 +228,31 @@ func TestDisplayErrorWhenGonbGone(t *testing.T) {
 	<-done
 	if err := Markdown("y"); err == nil {
 		t.Error("second Markdown after a failed one: no error")
+	}
+}
+
+// A shown target reaches gonb as one bundle: its mark, its text line and
+// its record line under MIMETarget, a []string that gob carries without
+// registration on gonb's side.
+func TestTargetThroughGonbPipes(t *testing.T) {
+	g := startFakeGonb(t, 1)
+	defer swapPipe(t)()
+	missed := target.AtLeast("fold-mirror transmission", 0.9364, 0.99)
+	Show([]target.Target{target.Near("output radius", 2.031*units.Millimeter, 2*units.Millimeter, 0.1*units.Millimeter), missed})
+	g.wait(t)
+	if len(g.display) != 1 {
+		t.Fatalf("gonb got %d bundles, want 1: %v", len(g.display), g.display)
+	}
+	b := g.display[0]
+	want := []string{"output radius\t2.031 mm\t2 ± 0.1 mm\tmet", missed.RecordLine()}
+	if got, _ := b[MIMETarget].([]string); !reflect.DeepEqual(got, want) {
+		t.Errorf("record lines = %#v, want %#v", b[MIMETarget], want)
+	}
+	html, _ := b[protocol.MIMETextHTML].(string)
+	if !strings.Contains(html, "✓") || !strings.Contains(html, "missed: is 0.0536 (5.4 %) below the limit") {
+		t.Errorf("marks = %s", html)
+	}
+	if b[protocol.MIMETextPlain] != "target output radius: 2.031 mm (wanted 2 ± 0.1 mm): met\n"+missed.String()+"\n" {
+		t.Errorf("text = %q", b[protocol.MIMETextPlain])
 	}
 }

@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"github.com/beamnote/beamnote/opticslib/table"
+	"github.com/beamnote/beamnote/opticslib/target"
 )
 
 // The notebook idiom. A cell states what is new and lets results render
@@ -74,6 +75,7 @@ func Check(err error) {
 // result and its error can be passed straight from the call that made
 // them: nb.Show(sys.Cardinal(paraxial.Tangential)). It shows
 //
+//   - a target.Target or []target.Target as design-target marks ([Target]);
 //   - a [Tabler] or a table.Table as a table;
 //   - an [SVGer] as a figure (its String, if any, is the caption);
 //   - a string as Markdown;
@@ -96,6 +98,10 @@ func Show(v any, errs ...error) {
 
 func show1(v any) error {
 	switch x := v.(type) {
+	case target.Target:
+		return Target(x)
+	case []target.Target:
+		return Target(x...)
 	case table.Table:
 		return Table(x)
 	case Tabler:
