@@ -250,6 +250,16 @@ func (t Target) Wanted() string {
 	return "≤ " + t.format(t.Hi)
 }
 
+// ToleranceText returns the tolerance in the target's display unit ("0.1
+// mm"): the half-width of a range; "" for a one-sided target, which has
+// none.
+func (t Target) ToleranceText() string {
+	if t.Kind == KindAtLeast || t.Kind == KindAtMost {
+		return ""
+	}
+	return t.format(t.Tol)
+}
+
 // ValueText returns the computed value in the target's display unit with
 // the digits the record keeps, for example "2.0312 mm".
 func (t Target) ValueText() string { return t.format(t.Value) }
