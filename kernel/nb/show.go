@@ -124,8 +124,11 @@ func show1(v any) error {
 	return preformatted(fmt.Sprintf("%+v", v))
 }
 
-// preformatted shows plain text as it is, in a <pre> block.
-func preformatted(s string) error { return HTML("<pre>"+html.EscapeString(s)+"</pre>", s) }
+// preformatted shows plain text as it is, in a <pre> block that wraps
+// long lines at spaces (Notebook 6 breaks output lines inside words).
+func preformatted(s string) error {
+	return HTML(`<pre style="white-space:pre-wrap;word-break:normal;overflow-wrap:break-word">`+html.EscapeString(s)+"</pre>", s)
+}
 
 // fail prints err with the source line of the caller skip frames up and
 // stops the cell.

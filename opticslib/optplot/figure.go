@@ -10,6 +10,7 @@ import (
 	"strings"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgsvg"
@@ -142,13 +143,54 @@ func (f Figure) SVG() ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
-	c := vgsvg.NewWith(vgsvg.UseWH(w, h))
+	c := &measuredText{Canvas: vgsvg.NewWith(vgsvg.UseWH(w, h))}
 	drawPlot(f.Plot, c)
 	var buf bytes.Buffer
 	if _, err := c.WriteTo(&buf); err != nil {
 		return nil, err
 	}
-	return buf.Bytes(), nil
+	return c.fix(buf.Bytes()), nil
+}
+
+// measuredText is the SVG canvas with the width of every string it draws,
+// in drawing order, as the plot's font metrics give it.
+type measuredText struct {
+	*vgsvg.Canvas
+	widths []vg.Length
+}
+
+func (c *measuredText) FillString(f font.Face, pt vg.Point, s string) {
+	c.widths = append(c.widths, f.Width(s))
+	c.Canvas.FillString(f, pt, s)
+}
+
+// svgSerif is the font-family list the figures name: the font whose
+// metrics laid the text out (gonum/plot's default), then Times New Roman,
+// which has the same metrics, then any serif.
+const svgSerif = "font-family:'Liberation Serif','Times New Roman',Times,serif;"
+
+// fix makes the figure's text keep its laid-out width in a browser that
+// lacks the plot's font: every <text> element gets the width its font
+// metrics give as textLength (lengthAdjust spacingAndGlyphs: a wider
+// substitute is narrowed to fit instead of running past the key or the
+// figure's edge), and the font family gets fallbacks. A figure whose text
+// elements do not match the measured strings one for one is left as it is.
+func (c *measuredText) fix(svg []byte) []byte {
+	open := []byte("<text ")
+	if bytes.Count(svg, open) != len(c.widths) {
+		return svg
+	}
+	var out bytes.Buffer
+	out.Grow(len(svg) + 48*len(c.widths))
+	rest := svg
+	for _, w := range c.widths {
+		i := bytes.Index(rest, open)
+		out.Write(rest[:i+len(open)])
+		out.WriteString(`textLength="` + strconv.FormatFloat(w.Points(), 'g', 5, 64) + `" lengthAdjust="spacingAndGlyphs" `)
+		rest = rest[i+len(open):]
+	}
+	out.Write(rest)
+	return bytes.ReplaceAll(out.Bytes(), []byte("font-family:Liberation Serif;"), []byte(svgSerif))
 }
 
 // Save writes the figure to the file path in the format its extension
