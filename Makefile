@@ -39,7 +39,7 @@ test: vet gotest nbtest
 deps:
 	@kernel/install-deps.sh
 
-$(BK): go.mod go.sum $(wildcard kernel/setup/*.go kernel/cmd/beamnote-kernel/*.go kernel/internal/*/*.go)
+$(BK): go.mod go.sum $(wildcard kernel/setup/*.go kernel/cmd/beamnote-kernel/*.go internal/*/*.go kernel/*/*.go)
 	$(GO) build -o $@ ./kernel/cmd/beamnote-kernel
 
 kernel: deps $(BK)

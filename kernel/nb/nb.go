@@ -32,7 +32,7 @@ import (
 	"path/filepath"
 	"strings"
 
-	"github.com/beamnote/beamnote/kernel/internal/atomicfile"
+	"github.com/beamnote/beamnote/internal/atomicfile"
 	"github.com/janpfeifer/gonb/gonbui/protocol"
 )
 

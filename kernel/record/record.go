@@ -22,7 +22,7 @@ import (
 	"strings"
 	"time"
 
-	"github.com/beamnote/beamnote/kernel/internal/atomicfile"
+	"github.com/beamnote/beamnote/internal/atomicfile"
 	"github.com/beamnote/beamnote/kernel/ipynb"
 	"github.com/beamnote/beamnote/kernel/nb"
 	"github.com/beamnote/beamnote/opticslib/target"

@@ -12,7 +12,7 @@ import (
 	"path/filepath"
 	"strings"
 
-	"github.com/beamnote/beamnote/kernel/internal/atomicfile"
+	"github.com/beamnote/beamnote/internal/atomicfile"
 )
 
 // Pinned tools, built from the module cache at the versions go.mod requires.

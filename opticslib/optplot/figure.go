@@ -4,7 +4,6 @@ import (
 	"bytes"
 	"errors"
 	"math"
-	"os"
 	"path/filepath"
 	"strconv"
 	"strings"
@@ -15,6 +14,7 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgsvg"
 
+	"github.com/beamnote/beamnote/internal/atomicfile"
 	"github.com/beamnote/beamnote/opticslib/internal/errtext"
 )
 
@@ -241,7 +241,7 @@ func (f Figure) Save(path string) error {
 		}
 		return &ParamError{Func: "Figure.Save", Param: "file extension", Value: ext, Reason: "must be .svg, .png or .pdf", Err: ErrFigure}
 	}
-	return writeAtomic(path, data)
+	return atomicfile.Write(path, data, 0o644)
 }
 
 // fileWriters maps a lower-case file extension other than ".svg" to the
@@ -260,38 +260,6 @@ const (
 // drawPlot draws p on c inside the figure margins.
 func drawPlot(p *plot.Plot, c vg.CanvasSizer) {
 	p.Draw(draw.Crop(draw.New(c), 0, -vg.Points(marginRight), 0, -vg.Points(marginTop)))
-}
-
-// writeAtomic writes data to a temporary file beside path, syncs it and
-// renames it to path (mode 0644).
-func writeAtomic(path string, data []byte) (err error) {
-	dir, base := filepath.Split(path)
-	if dir == "" {
-		dir = "."
-	}
-	tmp, err := os.CreateTemp(dir, "."+base+".tmp*")
-	if err != nil {
-		return err
-	}
-	defer func() {
-		if err != nil {
-			tmp.Close()
-			os.Remove(tmp.Name())
-		}
-	}()
-	if _, err = tmp.Write(data); err != nil {
-		return err
-	}
-	if err = tmp.Chmod(0o644); err != nil {
-		return err
-	}
-	if err = tmp.Sync(); err != nil {
-		return err
-	}
-	if err = tmp.Close(); err != nil {
-		return err
-	}
-	return os.Rename(tmp.Name(), path)
 }
 
 // String returns the caption, or the plot's title when the caption is
