@@ -34,7 +34,8 @@ const cellSVGOnlyFlag = "-tags=minimal"
 const cellBuildGOGC = "400"
 
 // shimScript returns the POSIX shell wrapper installed as "go" first on the
-// kernel's PATH. See the package documentation, section "Cell module".
+// kernel's PATH. See the package documentation, section "Cell module", and
+// [shimQueryFuncs] for the answers it keeps.
 func (l Layout) shimScript() []byte {
 	var b bytes.Buffer
 	fmt.Fprintf(&b, `#!/bin/sh
@@ -50,14 +51,25 @@ func (l Layout) shimScript() []byte {
 #   itself, which gonb starts, keeps the kernel's environment);
 # - a bare "go get" (what gonb runs per cell) with GOPROXY=off: skipped, as it
 #   could fetch nothing and "go build -mod=mod" adds any requirement the
-#   module cache holds.
+#   module cache holds;
+# - "go env NAME..." and "go list -m" (goimports asks them for every cell
+#   that leaves an import unused): given the answer kept in
+#   $GONB_TMP_DIR/%s
+#   while the arguments, the environment and the files the query reads
+#   (go.mod, go.sum, go.work, the go.mod of each local replacement, the go
+#   env files, the go command) are unchanged.
 # Every other call, and every call elsewhere, goes to the real go command
 # unchanged.
 REAL_GO=%s
 ROOT=%s
 FLAGS=%s
 SVGONLY=%s
-if [ -n "$GONB_TMP_DIR" ] && [ "$(pwd -P)" = "$(cd "$GONB_TMP_DIR" 2>/dev/null && pwd -P)" ]; then
+`, shimMarker, ModulePath, CellGoFlags, cellSVGOnlyFlag, cellBuildGOGC, shimQueryDir, shellQuote(l.RealGo), shellQuote(l.Root), shellQuote(CellGoFlags), shellQuote(cellSVGOnlyFlag))
+	b.WriteString(shimQueryFuncs)
+	// "[ . -ef DIR ]" (same device and inode) spares the two subshells of
+	// comparing "pwd -P" outputs on every call.
+	fmt.Fprintf(&b, `
+if [ -n "$GONB_TMP_DIR" ] && [ . -ef "$GONB_TMP_DIR" ]; then
 	case "$1" in
 	build | test)
 		cmd=$1
@@ -84,10 +96,16 @@ if [ -n "$GONB_TMP_DIR" ] && [ "$(pwd -P)" = "$(cd "$GONB_TMP_DIR" 2>/dev/null &
 			exit 0
 		fi
 		;;
+	env | list)
+		if q_cacheable "$@"; then
+			q_query "$@"
+			exit
+		fi
+		;;
 	esac
 fi
 exec "$REAL_GO" "$@"
-`, shimMarker, ModulePath, CellGoFlags, cellSVGOnlyFlag, cellBuildGOGC, shellQuote(l.RealGo), shellQuote(l.Root), shellQuote(CellGoFlags), shellQuote(cellSVGOnlyFlag), cellBuildGOGC, ModulePath, ModulePath)
+`, cellBuildGOGC, ModulePath, ModulePath)
 	return b.Bytes()
 }
 
