@@ -113,7 +113,7 @@ func (s System) TraceBulk(p Plane, ys, thetas, heights, angles []float64, blocke
 	*prog = s.program(p, blocked != nil, *prog)
 	defer bulkPrograms.Put(prog)
 	args := bulkArgs{n: n, ys: ys, thetas: thetas, heights: heights, angles: angles, blocked: blocked, ops: *prog}
-	args.stream = streamable(heights, n) && (angles == nil || streamable(angles, n))
+	args.stream = stream(heights, angles, n)
 	workers := procs
 	if procs <= 0 {
 		workers = min(runtime.GOMAXPROCS(0), n/BulkSplitRays)

@@ -21,12 +21,16 @@ var useBulkVector = cpu.X86.HasAVX2
 // BenchmarkTraceBulkStores compares the two (numbers in DEVELOPERS.md).
 const bulkStreamBytes = 8 << 20
 
-// streamable reports whether buf, the rows of n rays, can take the
-// vector kernel's non-temporal stores: it is larger than bulkStreamBytes
-// and every row starts on a 32-byte boundary (the buffer does, as Go's
-// large allocations do, and n is a multiple of 4).
-func streamable(buf []float64, n int) bool {
-	return 8*len(buf) > bulkStreamBytes && n%4 == 0 && uintptr(unsafe.Pointer(unsafe.SliceData(buf)))%32 == 0
+// stream reports whether the vector kernel should write heights and
+// angles (nil: not wanted), the rows of n rays, with non-temporal stores:
+// together they are larger than bulkStreamBytes, and every row starts on
+// a 32-byte boundary (the buffers do, as Go's large allocations do, and n
+// is a multiple of 4).
+func stream(heights, angles []float64, n int) bool {
+	aligned := func(buf []float64) bool {
+		return buf == nil || uintptr(unsafe.Pointer(unsafe.SliceData(buf)))%32 == 0
+	}
+	return 8*(len(heights)+len(angles)) > bulkStreamBytes && n%4 == 0 && aligned(heights) && aligned(angles)
 }
 
 // vector traces rays [lo, hi) (hi − lo a multiple of 64, lo of bulkTile)

@@ -7,6 +7,6 @@ package paraxial
 // portable kernels.
 var useBulkVector = false
 
-func streamable([]float64, int) bool { return false }
+func stream(heights, angles []float64, n int) bool { return false }
 
 func (j *bulkArgs) vector(lo, hi int) bool { panic("paraxial: no vector kernel") }

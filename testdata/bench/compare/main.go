@@ -51,7 +51,7 @@ import (
 
 // runs is the number of timed runs per side and case (the median is
 // printed); the first, untimed run warms caches and page tables.
-const runs = 9
+const runs = 15
 
 const nRays = 1_000_000
 
