@@ -52,3 +52,33 @@ func BenchmarkSample(b *testing.B) {
 		})
 	}
 }
+
+var sinkAngles []units.Angle
+
+// BenchmarkGouyPhase measures the on-demand Gouy phase of an astigmatic
+// caustic (both planes) at 10⁴ samples: one arctangent per sample and
+// plane.
+func BenchmarkGouyPhase(b *testing.B) {
+	bl := paraxial.NewBuilder()
+	rng := rand.New(rand.NewPCG(1, 1))
+	for range 10 {
+		bl.Space(units.Length(0.05 + 0.1*rng.Float64())).ThinLens(units.Length(0.05 + 0.2*rng.Float64()))
+	}
+	sys, err := bl.Build()
+	if err != nil {
+		b.Fatal(err)
+	}
+	ast, err := FromWaists(WaistSpec{WaistRadius: 0.5 * mm, Wavelength: 1064 * nm},
+		WaistSpec{WaistRadius: 0.3 * mm, WaistZ: 20 * mm, Wavelength: 1064 * nm, M2: 1.3})
+	if err != nil {
+		b.Fatal(err)
+	}
+	c, err := Sample(sys, ast, 10_000)
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	for b.Loop() {
+		sinkAngles, _ = c.GouyPhase()
+	}
+}
