@@ -196,21 +196,23 @@ func ParseRecordLine(s string) (Target, error) {
 		}
 		return x * symbols[strings.TrimSpace(sym)].factor, b, nil
 	}
-	switch {
-	case strings.HasPrefix(w, "≥ "):
-		lo, u, err := quantity(strings.TrimPrefix(w, "≥ "))
+	// limit parses the one limit of a one-sided range.
+	limit := func(s string) (float64, error) {
+		v, u, err := quantity(s)
 		if err == nil {
 			err = same(u)
 		}
+		return v, err
+	}
+	switch {
+	case strings.HasPrefix(w, "≥ "):
+		lo, err := limit(strings.TrimPrefix(w, "≥ "))
 		if err != nil {
 			return Target{}, err
 		}
 		t.Kind, t.Lo, t.Hi = KindAtLeast, lo, math.Inf(1)
 	case strings.HasPrefix(w, "≤ "):
-		hi, u, err := quantity(strings.TrimPrefix(w, "≤ "))
-		if err == nil {
-			err = same(u)
-		}
+		hi, err := limit(strings.TrimPrefix(w, "≤ "))
 		if err != nil {
 			return Target{}, err
 		}
