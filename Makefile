@@ -3,10 +3,12 @@
 #
 #   make notebook        install what is missing, build and register the kernel, serve notebooks/
 #   make test            go vet, go test, and every notebook executed headless with the kernel
-#   make nbtest NOTEBOOKS='path/*.ipynb'
-#                        execute those notebooks headless and check them (default notebooks/*.ipynb):
-#                        fails on a cell that does not compile, crashes, exits nonzero or prints a
-#                        line starting "error:", and on a missing figure; results in build/notebooks
+#   make rerun NOTEBOOKS='path/to/notes'
+#                        re-run notebooks (a folder or files; default notebooks/) headless: check every
+#                        cell and design target, keep the record beside each notebook, list what moved;
+#                        executed notebooks, HTML exports and the summary page in build/rerun
+#   make nbtest          the re-run of notebooks/ as `make test` runs it: every notebook twice (same
+#                        targets and byte-identical figures), every notebook with a figure
 #   make kernel          build gonb/goimports/gopls at the pinned versions, write the kernelspec, warm the cache
 #   make doctor          list what is missing, with the fix for each
 #   make bench           Go benchmarks of opticslib
@@ -22,14 +24,14 @@ GO ?= go
 KERNEL_SCOPE ?= project
 STATE := .beamnote
 BK := $(STATE)/bin/beamnote-kernel
-NOTEBOOKS := $(sort $(wildcard notebooks/*.ipynb))
+NOTEBOOKS := notebooks
 PYTHON ?= /usr/bin/python3
 
 ifeq ($(KERNEL_SCOPE),user)
 SCOPE_FLAG := -user
 endif
 
-.PHONY: notebook test deps kernel doctor bench latency compare vet gotest nbtest clean
+.PHONY: notebook test deps kernel doctor bench latency compare vet gotest nbtest rerun clean
 
 notebook: kernel
 	$(BK) serve $(SCOPE_FLAG)
@@ -39,7 +41,7 @@ test: vet gotest nbtest
 deps:
 	@kernel/install-deps.sh
 
-$(BK): go.mod go.sum $(wildcard kernel/setup/*.go kernel/cmd/beamnote-kernel/*.go internal/*/*.go kernel/*/*.go)
+$(BK): go.mod go.sum $(wildcard kernel/layout/*.go kernel/install/*.go kernel/serve/*.go kernel/run/*.go kernel/cmd/beamnote-kernel/*.go internal/*/*.go kernel/*/*.go)
 	$(GO) build -o $@ ./kernel/cmd/beamnote-kernel
 
 kernel: deps $(BK)
@@ -55,7 +57,10 @@ gotest: kernel
 	$(GO) test ./...
 
 nbtest: kernel
-	$(BK) test $(SCOPE_FLAG) $(NOTEBOOKS)
+	$(BK) run -twice -require-figure $(SCOPE_FLAG) notebooks
+
+rerun: kernel
+	$(BK) run $(SCOPE_FLAG) $(NOTEBOOKS)
 
 bench:
 	$(GO) test -run '^$$' -bench . -benchmem ./opticslib/...

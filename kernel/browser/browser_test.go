@@ -26,7 +26,11 @@ import (
 	"testing"
 	"time"
 
-	"github.com/beamnote/beamnote/kernel/setup"
+	"github.com/beamnote/beamnote/kernel/install"
+	"github.com/beamnote/beamnote/kernel/ipynb"
+	"github.com/beamnote/beamnote/kernel/layout"
+	nbrun "github.com/beamnote/beamnote/kernel/run"
+	"github.com/beamnote/beamnote/kernel/serve"
 	"github.com/beamnote/beamnote/opticslib/optplot"
 )
 
@@ -50,8 +54,8 @@ const (
 	markerVar = "BEAMNOTE_BROWSER_TEST"
 )
 
-// errorLineRE is the "error:" line rule of setup.CheckExecuted
-// (errorLineRE in kernel/setup/nbcheck.go), applied here to the stdout and
+// errorLineRE is the "error:" line rule of run.CheckExecuted
+// (errorLineRE in kernel/run/check.go), applied here to the stdout and
 // stderr text that the page shows.
 var errorLineRE = regexp.MustCompile(`(?im)^[ \t]*error:.*$`)
 
@@ -118,14 +122,14 @@ func TestBrowserRunAll(t *testing.T) {
 		}
 		t.Skip(msg)
 	}
-	l, err := setup.FindLayout(".")
+	l, err := layout.FindLayout(".")
 	if err != nil {
 		t.Fatal(err)
 	}
-	if _, err := os.Stat(filepath.Join(setup.KernelDir(l.JupyterData()), "kernel.json")); err != nil || setup.Jupyter() == "" {
+	if _, err := os.Stat(filepath.Join(layout.KernelDir(l.JupyterData()), "kernel.json")); err != nil || layout.Jupyter() == "" {
 		missing("beamnote kernel not installed in %s (run make kernel)", l.State)
 	}
-	if err := l.CheckKernelspec(false); err != nil {
+	if err := install.CheckKernelspec(l, false); err != nil {
 		missing("beamnote kernelspec unusable (run make kernel): %v", err)
 	}
 	chromium := os.Getenv("BEAMNOTE_CHROMIUM")
@@ -135,7 +139,7 @@ func TestBrowserRunAll(t *testing.T) {
 	if st, err := os.Stat(chromium); err != nil || st.IsDir() || st.Mode()&0o111 == 0 {
 		missing("no Chromium at %s (Debian: apt-get install chromium, or run kernel/install-deps.sh; BEAMNOTE_CHROMIUM names another binary)", chromium)
 	}
-	py := setup.Python()
+	py := layout.Python()
 	if py == "" {
 		missing("no python3 for the browser driver")
 	}
@@ -276,7 +280,7 @@ func (r *run) runNotebook(ctx context.Context, t *testing.T, py, driver, devtool
 		"--figure-text", optplot.YLabel,
 		"--kernel-timeout", strconv.Itoa(int(kernelTimeout.Seconds())),
 		"--run-timeout", strconv.Itoa(int(runTimeout.Seconds())))
-	cmd.Env = setup.Environ(map[string]string{markerVar: r.marker})
+	cmd.Env = layout.Environ(map[string]string{markerVar: r.marker})
 	cmd.SysProcAttr = &syscall.SysProcAttr{Setpgid: true}
 	cmd.Cancel = func() error { return syscall.Kill(-cmd.Process.Pid, syscall.SIGKILL) }
 	cmd.WaitDelay = 5 * time.Second
@@ -306,7 +310,7 @@ func (r *run) runNotebook(ctx context.Context, t *testing.T, py, driver, devtool
 
 // checkReport fails t for every problem that rep shows: a driver error, a
 // code cell without an execution count, an error output or "error:" line
-// on the page, a problem of setup.CheckExecuted in the notebook as the page
+// on the page, a problem of run.CheckExecuted in the notebook as the page
 // holds it, a JavaScript exception, no inline figure, and no caustic figure
 // when wantCaustic. Text cut off at a figure's edge is logged.
 func checkReport(t *testing.T, name string, rep *pageReport, wantCaustic bool, artefacts string) {
@@ -327,8 +331,8 @@ func checkReport(t *testing.T, name string, rep *pageReport, wantCaustic bool, a
 	if rep.Error != "" {
 		t.Fatalf("%s: %s (page state in %s)", name, rep.Error, filepath.Join(artefacts, name+".png"))
 	}
-	if rep.Kernel.Name != setup.KernelName {
-		t.Errorf("%s: the page runs kernel %q, want %q", name, rep.Kernel.Name, setup.KernelName)
+	if rep.Kernel.Name != layout.KernelName {
+		t.Errorf("%s: the page runs kernel %q, want %q", name, rep.Kernel.Name, layout.KernelName)
 	}
 	for _, e := range rep.Exceptions {
 		t.Errorf("%s: the page threw a JavaScript exception: %s", name, e)
@@ -375,11 +379,11 @@ func checkReport(t *testing.T, name string, rep *pageReport, wantCaustic bool, a
 	if code == 0 {
 		t.Errorf("%s: the page shows no code cell", name)
 	}
-	var nb setup.Notebook
+	var nb ipynb.Notebook
 	if err := json.Unmarshal(rep.Notebook, &nb); err != nil {
 		t.Errorf("%s: the notebook from the page is not nbformat JSON: %v", name, err)
 	} else {
-		for _, p := range setup.CheckExecuted(nb) {
+		for _, p := range nbrun.CheckExecuted(nb) {
 			t.Errorf("%s (notebook as the page holds it): %s", name, p)
 		}
 	}
@@ -485,7 +489,7 @@ func (r *run) start(name string, argv []string, env map[string]string, log io.Wr
 		e[k] = v
 	}
 	cmd := exec.Command(argv[0], argv[1:]...)
-	cmd.Env = setup.Environ(e)
+	cmd.Env = layout.Environ(e)
 	cmd.Stdout, cmd.Stderr = log, log
 	cmd.SysProcAttr = &syscall.SysProcAttr{Setpgid: true}
 	if err := cmd.Start(); err != nil {
@@ -628,11 +632,11 @@ type server struct {
 }
 
 // startServer starts the notebook server that `beamnote-kernel serve`
-// starts (setup.Layout.ServeCommand) on a free loopback port, serving dir,
+// starts (serve.Command) on a free loopback port, serving dir,
 // with Jupyter's per-user configuration and runtime files in work (so that a
 // password or extension of the user's does not change the page, and the
 // connection files stay out of .beamnote), and waits until it answers.
-func (r *run) startServer(ctx context.Context, l setup.Layout, dir, work, artefacts string) *server {
+func (r *run) startServer(ctx context.Context, l layout.Layout, dir, work, artefacts string) *server {
 	t := r.t
 	t.Helper()
 	logPath := filepath.Join(artefacts, "server.log")
@@ -649,15 +653,15 @@ func (r *run) startServer(ctx context.Context, l setup.Layout, dir, work, artefa
 		}
 		port := ln.Addr().(*net.TCPAddr).Port
 		ln.Close()
-		argv, env, treeURL, err := l.ServeCommand(setup.ServeOptions{Port: port, Dir: dir})
+		argv, env, treeURL, err := serve.Command(l, serve.Options{Port: port, Dir: dir})
 		if err != nil {
-			t.Fatalf("ServeCommand: %v", err)
+			t.Fatalf("serve.Command: %v", err)
 		}
 		env["JUPYTER_CONFIG_DIR"] = filepath.Join(work, "jupyter-config")
 		env["JUPYTER_RUNTIME_DIR"] = filepath.Join(work, "jupyter-runtime")
 		u, err := url.Parse(treeURL)
 		if err != nil {
-			t.Fatalf("ServeCommand URL %q: %v", treeURL, err)
+			t.Fatalf("serve.Command URL %q: %v", treeURL, err)
 		}
 		srv := &server{base: u.Scheme + "://" + u.Host, token: env["JUPYTER_TOKEN"], log: logPath}
 		g, err := r.start("notebook server", argv, env, log)
@@ -667,7 +671,7 @@ func (r *run) startServer(ctx context.Context, l setup.Layout, dir, work, artefa
 		g.stop = func() { srv.shutdownKernels(t, "") }
 		wctx, cancel := context.WithTimeout(ctx, startTimeout)
 		ready := make(chan error, 1)
-		go func() { ready <- setup.WaitServing(wctx, treeURL) }()
+		go func() { ready <- serve.WaitServing(wctx, treeURL) }()
 		select {
 		case err := <-ready:
 			cancel()

@@ -1,11 +1,11 @@
 // Package browser holds the end-to-end test of beamnote's notebooks in a
 // real browser: TestBrowserRunAll serves a temporary copy of notebooks/ with
 // the notebook server that `beamnote-kernel serve` starts
-// (Layout.ServeCommand of kernel/setup: loopback, a token in JUPYTER_TOKEN), opens
+// (serve.Command of kernel/serve: loopback, a token in JUPYTER_TOKEN), opens
 // each notebook in Debian's headless Chromium, runs all cells from the page
 // as Cell > Run All does, waits until the kernel is idle, and checks what the
 // page shows: every code cell ran (has an execution count), no cell shows
-// an error output or an "error:" line (the rules of setup.CheckExecuted,
+// an error output or an "error:" line (the rules of run.CheckExecuted,
 // applied to the notebook as the page holds it and to the rendered outputs),
 // every notebook shows an inline <svg> figure with a nonzero size, and a
 // notebook that draws a caustic (optplot.Caustic) shows it inline. A PNG of
@@ -22,7 +22,7 @@
 //
 // driver.py speaks the Chrome DevTools Protocol with the websocket client of
 // python3-tornado (a Debian package; no npm, no Python package index) and is
-// run with the Python that Jupyter uses (setup.Python). The test starts
+// run with the Python that Jupyter uses (layout.Python). The test starts
 // Chromium with --remote-debugging-port=0 and passes the address that
 // Chromium writes to DevToolsActivePort; the driver opens a tab per notebook,
 // detects the front-end (classic Notebook 6 through window.Jupyter;

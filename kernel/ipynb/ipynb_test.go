@@ -53,3 +53,15 @@ func TestSetMetadataKeepsFields(t *testing.T) {
 		t.Errorf("Parse(output) = %+v, %v", nb, err)
 	}
 }
+
+func TestText(t *testing.T) {
+	for _, test := range []struct{ raw, want string }{
+		{`"a\nb"`, "a\nb"},
+		{`["a\n", "b"]`, "a\nb"},
+		{``, ""},
+	} {
+		if got := Text(json.RawMessage(test.raw)); got != test.want {
+			t.Errorf("Text(%s) = %q, want %q", test.raw, got, test.want)
+		}
+	}
+}

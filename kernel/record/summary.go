@@ -114,7 +114,7 @@ table{border-collapse:collapse;margin:1em 0}
 th,td{border-bottom:1px solid #ddd;padding:4px 10px;text-align:left;vertical-align:top}
 th{background:#f4f4f4}
 td.num{font-variant-numeric:tabular-nums;white-space:nowrap}
-.met{color:#2f7d4a;font-weight:bold}.missed{color:#b3261e;font-weight:bold}
+.met{color:#2f7d4a;font-weight:bold;white-space:nowrap}.missed{color:#b3261e;font-weight:bold}
 .moved{color:#8a5a00}
 .problem{color:#b3261e}
 </style></head><body>

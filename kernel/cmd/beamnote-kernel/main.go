@@ -1,6 +1,6 @@
 // Command beamnote-kernel installs, checks and serves the beamnote Jupyter
 // kernel (gonb at the version pinned in go.mod, with the checkout importable
-// from cells).
+// from cells), and re-runs notebooks as design records.
 //
 // Usage:
 //
@@ -9,37 +9,41 @@
 //	beamnote-kernel doctor [-user]              list what is missing, with the fix for each
 //	beamnote-kernel serve [-user] [-ip A] [-port P]
 //	                                            start Jupyter Notebook on notebooks/ with a token
-//	beamnote-kernel test [-user] [-out DIR] NB.ipynb...
-//	                                            execute notebooks headless and check their outputs:
-//	                                            fails on a cell that does not compile, crashes,
-//	                                            exits nonzero or prints a line starting "error:",
-//	                                            and on a missing figure
+//	beamnote-kernel run [-user] [-out DIR] [-timeout D] [-inplace] [-twice] [-require-figure] FOLDER|NB.ipynb...
+//	                                            re-run notebooks headless: check every cell, collect
+//	                                            the design targets, write the executed notebooks, HTML
+//	                                            exports and a summary page to DIR, keep the record
+//	                                            beside each notebook and list what moved; exits 1
+//	                                            naming every missed target and failed cell
+//	beamnote-kernel diff OLD NEW                compare two records (or the records beside two notebooks)
 //
 // Run it from anywhere inside the checkout, usually through the Makefile.
 package main
 
 import (
-	"context"
 	"errors"
 	"flag"
 	"fmt"
-	"io"
 	"os"
 	"os/exec"
-	"os/signal"
 	"path/filepath"
 	"strconv"
+	"strings"
 	"syscall"
-	"time"
 
-	"github.com/beamnote/beamnote/kernel/setup"
+	"github.com/beamnote/beamnote/kernel/install"
+	"github.com/beamnote/beamnote/kernel/layout"
+	"github.com/beamnote/beamnote/kernel/record"
+	"github.com/beamnote/beamnote/kernel/run"
+	"github.com/beamnote/beamnote/kernel/serve"
+	"github.com/beamnote/beamnote/opticslib/target"
 )
 
 func main() {
 	if len(os.Args) < 2 {
 		usage()
 	}
-	l, err := setup.FindLayout(".")
+	l, err := layout.FindLayout(".")
 	if err != nil {
 		fail(err)
 	}
@@ -50,96 +54,83 @@ func main() {
 	case "install":
 		nowarm := fs.Bool("nowarm", false, "do not warm the build cache")
 		fs.Parse(args)
-		kdir, err := setup.Install(l, setup.InstallOptions{User: *user, SkipWarm: *nowarm}, os.Stderr)
+		kdir, err := install.Install(l, install.Options{User: *user, SkipWarm: *nowarm}, os.Stderr)
 		if err != nil {
 			fail(err)
 		}
 		fmt.Println(kdir)
 	case "warm":
 		fs.Parse(args)
-		if err := setup.Warm(l, os.Stderr); err != nil {
+		if err := install.Warm(l, os.Stderr); err != nil {
 			fail(err)
 		}
 	case "doctor":
 		fs.Parse(args)
-		if !setup.WriteReport(os.Stdout, setup.Doctor(l, *user)) {
+		if !install.WriteReport(os.Stdout, install.Doctor(l, *user)) {
 			os.Exit(1)
 		}
 	case "serve":
 		ip := fs.String("ip", envOr("NOTEBOOK_IP", "127.0.0.1"), "address to bind (loopback unless BEAMNOTE_ALLOW_REMOTE=1)")
 		port := fs.Int("port", envInt("NOTEBOOK_PORT", 8888), "port")
 		fs.Parse(args)
-		argv, env, url, err := l.ServeCommand(setup.ServeOptions{
+		argv, env, url, err := serve.Command(l, serve.Options{
 			IP: *ip, Port: *port, Token: os.Getenv("BEAMNOTE_TOKEN"),
 			AllowRemote: os.Getenv("BEAMNOTE_ALLOW_REMOTE") == "1", User: *user,
 		})
 		if err != nil {
 			fail(err)
 		}
-		if err := l.CheckKernelspec(*user); err != nil {
+		if err := install.CheckKernelspec(l, *user); err != nil {
 			fmt.Fprintf(os.Stderr, "beamnote: warning: %v\nbeamnote: run `make kernel` (or `beamnote-kernel install`) first; `make doctor` lists what else is missing\n", err)
 		}
-		if err := l.SignNotebooks(*user); err != nil {
+		if err := serve.SignNotebooks(l, *user); err != nil {
 			fmt.Fprintln(os.Stderr, "beamnote: warning:", err)
 		}
 		fmt.Printf("\nbeamnote: serving %s\n", filepath.Join(l.Root, "notebooks"))
-		if err := serve(argv, env, url, os.Stdout); err != nil {
+		if err := serve.Run(argv, env, url, os.Stdout); err != nil {
 			fail(err)
 		}
-	case "test":
-		out := fs.String("out", filepath.Join(l.Root, "build", "notebooks"), "directory for executed notebooks and HTML exports")
+	case "run":
+		out := fs.String("out", filepath.Join(l.Root, "build", "rerun"), "folder for the executed notebooks, HTML exports and the summary page")
+		timeout := fs.Duration("timeout", run.DefaultCellTimeout, "how long one cell may run")
+		inplace := fs.Bool("inplace", false, "also write each executed notebook over its file")
+		twice := fs.Bool("twice", false, "run every notebook twice and fail it if a target or a figure differs")
+		figure := fs.Bool("require-figure", false, "fail a notebook that shows no figure")
 		fs.Parse(args)
-		if err := l.ExecuteNotebooks(fs.Args(), *out, *user, os.Stderr); err != nil {
+		rs, err := run.Rerun(l, fs.Args(), run.Options{Out: *out, CellTimeout: *timeout, InPlace: *inplace, User: *user,
+			Twice: *twice, RequireFigure: *figure, Log: os.Stderr})
+		if err != nil {
 			fail(err)
 		}
-		fmt.Fprintf(os.Stderr, "beamnote: %d notebook(s) executed and checked; results in %s\n", len(fs.Args()), *out)
+		for _, r := range rs {
+			if r.Failed() {
+				os.Exit(1)
+			}
+		}
+	case "diff":
+		fs.Parse(args)
+		if fs.NArg() != 2 {
+			fail(errors.New("diff needs two records (or notebooks): OLD NEW"))
+		}
+		var recs [2]target.Record
+		for i, p := range fs.Args() {
+			if strings.HasSuffix(p, ".ipynb") {
+				p = record.PathFor(p)
+			}
+			if recs[i], err = record.Read(p); err != nil {
+				fail(err)
+			}
+		}
+		changes := target.Compare(recs[0], recs[1])
+		fmt.Printf("beamnote: %s (%s)\n       → %s (%s)\n", fs.Arg(0), recs[0].Producer, fs.Arg(1), recs[1].Producer)
+		for _, c := range changes {
+			fmt.Println("  " + c.String())
+		}
+		if len(changes) == 0 {
+			fmt.Println("  no target moved beyond its tolerance")
+		}
 	default:
 		usage()
-	}
-}
-
-// serveTimeout is how long serve waits for the notebook server to answer
-// before it prints the URL with a warning.
-const serveTimeout = 60 * time.Second
-
-// serve runs the notebook server argv with environment env until it exits,
-// and writes the URL to out once the server answers HTTP there. It forwards
-// SIGTERM and SIGHUP to the server; SIGINT from the terminal reaches the
-// server by itself (same process group), which then asks to confirm.
-func serve(argv []string, env map[string]string, url string, out io.Writer) error {
-	sigs := make(chan os.Signal, 1)
-	signal.Notify(sigs, os.Interrupt, syscall.SIGTERM, syscall.SIGHUP)
-	defer signal.Stop(sigs)
-	cmd := exec.Command(argv[0], argv[1:]...)
-	cmd.Env = setup.Environ(env)
-	cmd.Stdin, cmd.Stdout, cmd.Stderr = os.Stdin, os.Stdout, os.Stderr
-	if err := cmd.Start(); err != nil {
-		return fmt.Errorf("starting %s: %w", argv[0], err)
-	}
-	exited := make(chan error, 1)
-	go func() { exited <- cmd.Wait() }()
-	ctx, cancel := context.WithTimeout(context.Background(), serveTimeout)
-	defer cancel()
-	ready := make(chan error, 1)
-	go func() { ready <- setup.WaitServing(ctx, url) }()
-	for {
-		select {
-		case err := <-ready:
-			ready = nil
-			if err != nil {
-				fmt.Fprintf(out, "beamnote: warning: no answer within %v, the server may still be starting: %v\n", serveTimeout, err)
-			}
-			fmt.Fprintf(out, "\nbeamnote: open %s\n\n", url)
-		case sig := <-sigs:
-			if sig != os.Interrupt {
-				cmd.Process.Signal(sig)
-			}
-		case err := <-exited:
-			if err != nil {
-				return fmt.Errorf("%s: %w", argv[0], err)
-			}
-			return nil
-		}
 	}
 }
 
@@ -162,7 +153,7 @@ func envInt(name string, def int) int {
 }
 
 func usage() {
-	fmt.Fprintln(os.Stderr, "usage: beamnote-kernel install|warm|doctor|serve|test [flags]")
+	fmt.Fprintln(os.Stderr, "usage: beamnote-kernel install|warm|doctor|serve|run|diff [flags]")
 	os.Exit(2)
 }
 

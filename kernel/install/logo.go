@@ -1,4 +1,4 @@
-package setup
+package install
 
 import (
 	"bytes"
@@ -48,7 +48,7 @@ func LogoPNG(size int) []byte {
 	}
 	var b bytes.Buffer
 	if err := png.Encode(&b, img); err != nil {
-		panic("setup: encoding logo: " + err.Error()) // in-memory encoding cannot fail
+		panic("install: encoding logo: " + err.Error()) // in-memory encoding cannot fail
 	}
 	return b.Bytes()
 }

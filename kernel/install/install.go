@@ -1,18 +1,17 @@
-package setup
+package install
 
 import (
 	"debug/buildinfo"
 	"encoding/json"
-	"errors"
 	"fmt"
 	"go/version"
 	"io"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"strings"
 
 	"github.com/beamnote/beamnote/internal/atomicfile"
+	"github.com/beamnote/beamnote/kernel/layout"
 )
 
 // Pinned tools, built from the module cache at the versions go.mod requires.
@@ -23,7 +22,7 @@ const (
 
 // goplsPkg is the language server that gonb asks for completion and
 // contextual help; gonb finds it on PATH when the kernel starts. It is a
-// tool of its own module, [Layout.GoplsModule], because gopls pins an
+// tool of its own module, [GoplsModule], because gopls pins an
 // x/tools of its own that goimports' cannot replace (gopls v0.23.0 does not
 // build against x/tools v0.52.0).
 const goplsPkg = "golang.org/x/tools/gopls"
@@ -31,15 +30,16 @@ const goplsPkg = "golang.org/x/tools/gopls"
 // GoplsModule is the directory of the tool module that pins gopls
 // (kernel/tools/gopls, with its own go.mod and go.sum; "go vet ./..." and
 // "go test ./..." in the checkout do not descend into a nested module).
-func (l Layout) GoplsModule() string { return filepath.Join(l.Root, "kernel", "tools", "gopls") }
+func GoplsModule(l layout.Layout) string { return filepath.Join(l.Root, "kernel", "tools", "gopls") }
 
 // MinGo is the oldest Go release the checkout builds with (go.mod's go line).
 const MinGo = "1.26"
 
-// InstallOptions selects where the kernelspec goes.
-type InstallOptions struct {
+// Options selects where the kernelspec goes and whether the build cache
+// is warmed.
+type Options struct {
 	// User installs the kernelspec into the per-user Jupyter data directory
-	// (see [UserJupyterData]) instead of the project-local one.
+	// (see [layout.UserJupyterData]) instead of the project-local one.
 	User bool
 	// SkipWarm leaves the build cache alone.
 	SkipWarm bool
@@ -48,48 +48,48 @@ type InstallOptions struct {
 // Install builds gonb, goimports and gopls at their pinned versions, writes the go
 // wrapper and the kernelspec, and warms the build cache. Progress goes to log.
 // It returns the kernelspec directory.
-func Install(l Layout, opt InstallOptions, log io.Writer) (string, error) {
+func Install(l layout.Layout, opt Options, log io.Writer) (string, error) {
 	if err := CheckGoVersion(l); err != nil {
 		return "", err
 	}
 	fmt.Fprintf(log, "beamnote: downloading modules named in go.mod (once; later runs need no network)\n")
-	if err := l.run(log, l.Root, nil, l.RealGo, "mod", "download"); err != nil {
+	if err := layout.Run(log, l.Root, nil, l.RealGo, "mod", "download"); err != nil {
 		return "", err
 	}
 	fmt.Fprintf(log, "beamnote: building gonb and goimports at the versions pinned in go.mod\n")
 	if err := os.MkdirAll(l.ShimDir(), 0o755); err != nil {
 		return "", err
 	}
-	if err := l.run(log, l.Root, nil, l.RealGo, "build", "-o", l.Bin()+string(os.PathSeparator), gonbPkg, goimportsPkg); err != nil {
+	if err := layout.Run(log, l.Root, nil, l.RealGo, "build", "-o", l.Bin()+string(os.PathSeparator), gonbPkg, goimportsPkg); err != nil {
 		return "", err
 	}
 	fmt.Fprintf(log, "beamnote: building gopls at the version pinned in %s (completion and help in cells; the first build takes a minute)\n",
-		filepath.Join(l.GoplsModule(), "go.mod"))
-	if err := os.MkdirAll(filepath.Dir(l.goplsBinary()), 0o755); err != nil {
+		filepath.Join(GoplsModule(l), "go.mod"))
+	if err := os.MkdirAll(filepath.Dir(goplsBinary(l)), 0o755); err != nil {
 		return "", err
 	}
-	if err := l.run(log, l.GoplsModule(), nil, l.RealGo, "build", "-o", l.goplsBinary(), goplsPkg); err != nil {
+	if err := layout.Run(log, GoplsModule(l), nil, l.RealGo, "build", "-o", goplsBinary(l), goplsPkg); err != nil {
 		return "", err
 	}
-	if err := atomicfile.Write(filepath.Join(l.Bin(), "gopls"), l.goplsScript(), 0o755); err != nil {
+	if err := atomicfile.Write(filepath.Join(l.Bin(), "gopls"), goplsScript(l), 0o755); err != nil {
 		return "", err
 	}
-	if err := atomicfile.Write(l.shimPath(), l.shimScript(), 0o755); err != nil {
+	if err := atomicfile.Write(shimPath(l), shimScript(l), 0o755); err != nil {
 		return "", err
 	}
 	dataDir := l.JupyterData()
 	if opt.User {
-		d, err := UserJupyterData()
+		d, err := layout.UserJupyterData()
 		if err != nil {
 			return "", err
 		}
 		dataDir = d
 	}
-	kdir, err := l.WriteKernelspec(dataDir)
+	kdir, err := WriteKernelspec(l, dataDir)
 	if err != nil {
 		return "", err
 	}
-	fmt.Fprintf(log, "beamnote: kernelspec %q written to %s\n", KernelName, kdir)
+	fmt.Fprintf(log, "beamnote: kernelspec %q written to %s\n", layout.KernelName, kdir)
 	if !opt.SkipWarm {
 		fmt.Fprintf(log, "beamnote: warming the Go build cache for notebook cells\n")
 		if err := Warm(l, log); err != nil {
@@ -112,16 +112,17 @@ type kernelspec struct {
 
 // WriteKernelspec writes kernel.json and the logos under dataDir, and the
 // kernel launcher .beamnote/bin/gonb-kernel that kernel.json runs, and
-// returns the kernelspec directory. kernel.json's env is [Layout.KernelEnv]
-// without PATH: the launcher puts the kernel's directories before the PATH
-// that the kernel inherits, so that "!" commands in cells keep the user's.
-func (l Layout) WriteKernelspec(dataDir string) (string, error) {
+// returns the kernelspec directory. kernel.json's env is
+// [layout.Layout.KernelEnv] without PATH: the launcher puts the kernel's
+// directories before the PATH that the kernel inherits, so that "!"
+// commands in cells keep the user's.
+func WriteKernelspec(l layout.Layout, dataDir string) (string, error) {
 	env, err := l.KernelEnv()
 	if err != nil {
 		return "", err
 	}
 	delete(env, "PATH")
-	gonbVersion, err := l.PinnedVersion(gonbPkg)
+	gonbVersion, err := PinnedVersion(l, gonbPkg)
 	if err != nil {
 		return "", err
 	}
@@ -133,11 +134,11 @@ func (l Layout) WriteKernelspec(dataDir string) (string, error) {
 		// with "Cell[N]: Line L"), which a terminal, nbconvert and an HTML
 		// export all show, instead of an HTML block beside an error that
 		// reads only `failed to run ".../go build ...": exit status 1`.
-		Argv: []string{l.launcherPath(), "--kernel", "{connection_file}",
+		Argv: []string{launcherPath(l), "--kernel", "{connection_file}",
 			"--raw_error",
 			"--logtostderr=false", "--stderrthreshold=FATAL",
 			"--log_file=" + l.KernelLog(), "--log_file_max_size=20"},
-		DisplayName:   DisplayName,
+		DisplayName:   layout.DisplayName,
 		Language:      "go",
 		InterruptMode: "message",
 		Env:           env,
@@ -149,13 +150,13 @@ func (l Layout) WriteKernelspec(dataDir string) (string, error) {
 	if err != nil {
 		return "", err
 	}
-	kdir := KernelDir(dataDir)
+	kdir := layout.KernelDir(dataDir)
 	for _, d := range []string{filepath.Dir(l.KernelLog()), l.Bin(), kdir} {
 		if err := os.MkdirAll(d, 0o755); err != nil {
 			return "", err
 		}
 	}
-	if err := atomicfile.Write(l.launcherPath(), l.launcherScript(), 0o755); err != nil {
+	if err := atomicfile.Write(launcherPath(l), launcherScript(l), 0o755); err != nil {
 		return "", err
 	}
 	files := []struct {
@@ -177,14 +178,14 @@ func (l Layout) WriteKernelspec(dataDir string) (string, error) {
 
 // PinnedVersion returns the version of module mod that the checkout's go.mod
 // selects.
-func (l Layout) PinnedVersion(mod string) (string, error) {
-	return l.pinnedVersion(l.Root, mod)
+func PinnedVersion(l layout.Layout, mod string) (string, error) {
+	return pinnedVersion(l, l.Root, mod)
 }
 
 // pinnedVersion returns the version of module mod that the go.mod in dir
 // selects.
-func (l Layout) pinnedVersion(dir, mod string) (string, error) {
-	out, err := l.output(dir, l.RealGo, "list", "-m", "-f", "{{.Version}}", mod)
+func pinnedVersion(l layout.Layout, dir, mod string) (string, error) {
+	out, err := layout.Output(dir, l.RealGo, "list", "-m", "-f", "{{.Version}}", mod)
 	if err != nil {
 		return "", err
 	}
@@ -217,18 +218,18 @@ func checkBuilt(bin, mod, want string) error {
 }
 
 // CheckGoVersion reports an error if the go command is older than [MinGo].
-func CheckGoVersion(l Layout) error {
-	ge, err := l.goEnv("GOVERSION")
+func CheckGoVersion(l layout.Layout) error {
+	ge, err := l.GoEnv("GOVERSION")
 	if err != nil {
 		return err
 	}
-	return l.checkGoVersion(ge["GOVERSION"])
+	return checkGoVersion(l, ge["GOVERSION"])
 }
 
 // checkGoVersion reports an error if goVersion, the go command's GOVERSION
 // ("go1.26.8", or "devel go1.27-abcdef …" for a development build), is
 // older than [MinGo] or unreadable.
-func (l Layout) checkGoVersion(goVersion string) error {
+func checkGoVersion(l layout.Layout, goVersion string) error {
 	v := ""
 	for _, f := range strings.Fields(goVersion) {
 		if version.IsValid(f) {
@@ -237,40 +238,10 @@ func (l Layout) checkGoVersion(goVersion string) error {
 		}
 	}
 	if v == "" {
-		return fmt.Errorf("setup: cannot read the Go version from %q", goVersion)
+		return fmt.Errorf("install: cannot read the Go version from %q", goVersion)
 	}
 	if version.Compare(v, "go"+MinGo) < 0 {
-		return fmt.Errorf("setup: %s is %s; beamnote needs Go %s or newer (https://go.dev/dl)", l.RealGo, goVersion, MinGo)
+		return fmt.Errorf("install: %s is %s; beamnote needs Go %s or newer (https://go.dev/dl)", l.RealGo, goVersion, MinGo)
 	}
 	return nil
-}
-
-// run runs a command in dir with extra environment, copying its output to log.
-func (l Layout) run(log io.Writer, dir string, env map[string]string, name string, args ...string) error {
-	cmd := exec.Command(name, args...)
-	cmd.Dir = dir
-	if env != nil {
-		cmd.Env = Environ(env)
-	}
-	cmd.Stdout, cmd.Stderr = log, log
-	if err := cmd.Run(); err != nil {
-		return fmt.Errorf("setup: %s (in %s): %w", strings.Join(cmd.Args, " "), dir, err)
-	}
-	return nil
-}
-
-// output runs a command and returns its standard output.
-func (l Layout) output(dir string, name string, args ...string) (string, error) {
-	cmd := exec.Command(name, args...)
-	cmd.Dir = dir
-	out, err := cmd.Output()
-	if err != nil {
-		msg := ""
-		var ee *exec.ExitError
-		if errors.As(err, &ee) {
-			msg = ": " + strings.TrimSpace(string(ee.Stderr))
-		}
-		return "", fmt.Errorf("setup: %s: %w%s", strings.Join(cmd.Args, " "), err, msg)
-	}
-	return string(out), nil
 }

@@ -1,13 +1,23 @@
-package setup
+package install
 
 import (
 	"bytes"
 	"fmt"
 	"path/filepath"
 	"strings"
+
+	"github.com/beamnote/beamnote/kernel/layout"
 )
 
-const shimMarker = "# beamnote go wrapper"
+// CellGoFlags are the build flags of every cell (and of [Warm], which must
+// match them for the build cache to hit). The go wrapper adds them to
+// "go build" and "go test" in gonb's cell module only, so "!go" commands in
+// cells run with the user's own flags. -mod=mod lets "go build" add missing
+// requirements to the cell's go.mod; -ldflags=-w omits DWARF debug
+// information, which shortens linking of plotting cells (stack traces still
+// carry file and line from the runtime's own tables). No value may contain
+// a space: the wrapper splits the list into words.
+const CellGoFlags = "-mod=mod -ldflags=-w"
 
 // cellSVGOnlyFlag is added to a cell's "go build" and "go test" after
 // [CellGoFlags] unless a Go file of the cell module mentions a Save method
@@ -36,7 +46,7 @@ const cellBuildGOGC = "400"
 // shimScript returns the POSIX shell wrapper installed as "go" first on the
 // kernel's PATH. See the package documentation, section "Cell module", and
 // [shimQueryFuncs] for the answers it keeps.
-func (l Layout) shimScript() []byte {
+func shimScript(l layout.Layout) []byte {
 	var b bytes.Buffer
 	fmt.Fprintf(&b, `#!/bin/sh
 %s: written by "beamnote-kernel install"; do not edit.
@@ -64,7 +74,7 @@ REAL_GO=%s
 ROOT=%s
 FLAGS=%s
 SVGONLY=%s
-`, shimMarker, ModulePath, CellGoFlags, cellSVGOnlyFlag, cellBuildGOGC, shimQueryDir, shellQuote(l.RealGo), shellQuote(l.Root), shellQuote(CellGoFlags), shellQuote(cellSVGOnlyFlag))
+`, layout.ShimMarker, layout.ModulePath, CellGoFlags, cellSVGOnlyFlag, cellBuildGOGC, shimQueryDir, shellQuote(l.RealGo), shellQuote(l.Root), shellQuote(CellGoFlags), shellQuote(cellSVGOnlyFlag))
 	b.WriteString(shimQueryFuncs)
 	// "[ . -ef DIR ]" (same device and inode) spares the two subshells of
 	// comparing "pwd -P" outputs on every call.
@@ -105,40 +115,26 @@ if [ -n "$GONB_TMP_DIR" ] && [ . -ef "$GONB_TMP_DIR" ]; then
 	esac
 fi
 exec "$REAL_GO" "$@"
-`, cellBuildGOGC, ModulePath, ModulePath)
+`, cellBuildGOGC, layout.ModulePath, layout.ModulePath)
 	return b.Bytes()
 }
 
 // shimRealGo reads REAL_GO back from a wrapper script, or returns "".
-func shimRealGo(script []byte) string { return shimVar(script, "REAL_GO") }
+func shimRealGo(script []byte) string { return layout.ShimVar(script, "REAL_GO") }
 
 // shimRoot reads ROOT (the checkout) back from a wrapper script, or returns "".
-func shimRoot(script []byte) string { return shimVar(script, "ROOT") }
-
-// shimVar reads back an assignment name='value' written with [shellQuote].
-func shimVar(script []byte, name string) string {
-	if !bytes.Contains(script, []byte(shimMarker)) {
-		return ""
-	}
-	for _, line := range strings.Split(string(script), "\n") {
-		if v, ok := strings.CutPrefix(line, name+"="); ok {
-			v = strings.TrimSuffix(strings.TrimPrefix(v, "'"), "'")
-			return strings.ReplaceAll(v, `'\''`, "'")
-		}
-	}
-	return ""
-}
+func shimRoot(script []byte) string { return layout.ShimVar(script, "ROOT") }
 
 const launcherMarker = "# beamnote kernel launcher"
 
 // launcherScript returns the POSIX shell script that kernel.json runs to
-// start gonb: it puts [Layout.kernelPathDirs] before the PATH that the kernel
-// inherits from the notebook server, so that "!" shell commands in cells keep
-// the user's PATH. (Kernelspec env values are taken literally, and a PATH
-// there would replace the user's.)
-func (l Layout) launcherScript() []byte {
+// start gonb: it puts [layout.Layout.KernelPathDirs] before the PATH that
+// the kernel inherits from the notebook server, so that "!" shell commands
+// in cells keep the user's PATH. (Kernelspec env values are taken
+// literally, and a PATH there would replace the user's.)
+func launcherScript(l layout.Layout) []byte {
 	dirs := make([]string, 0, 3)
-	for _, d := range l.kernelPathDirs() {
+	for _, d := range l.KernelPathDirs() {
 		dirs = append(dirs, shellQuote(d))
 	}
 	return fmt.Appendf(nil, `#!/bin/sh
@@ -148,7 +144,7 @@ func (l Layout) launcherScript() []byte {
 PATH=%s:${PATH:-%s}
 export PATH
 exec %s "$@"
-`, launcherMarker, strings.Join(dirs, ":"), defaultPath, shellQuote(filepath.Join(l.Bin(), "gonb")))
+`, launcherMarker, strings.Join(dirs, ":"), layout.DefaultPath, shellQuote(filepath.Join(l.Bin(), "gonb")))
 }
 
 // goplsIdleTimeout is how long the language server outlives its last
@@ -158,26 +154,26 @@ exec %s "$@"
 // ever. With the timeout gopls ends this long after its kernel.
 const goplsIdleTimeout = "2m"
 
-// goplsBinary is where the real gopls is built; [Layout.goplsScript],
+// goplsBinary is where the real gopls is built; [goplsScript],
 // installed as .beamnote/bin/gopls, starts it.
-func (l Layout) goplsBinary() string { return filepath.Join(l.State, "libexec", "gopls") }
+func goplsBinary(l layout.Layout) string { return filepath.Join(l.State, "libexec", "gopls") }
 
 // goplsScript returns the POSIX shell script that gonb finds on PATH as
 // gopls: the pinned gopls with -listen.timeout, so that it exits once no
 // kernel is connected.
-func (l Layout) goplsScript() []byte {
+func goplsScript(l layout.Layout) []byte {
 	return fmt.Appendf(nil, `#!/bin/sh
 # beamnote gopls: written by "beamnote-kernel install"; do not edit.
 # The pinned gopls, ending %s after its last client (its kernel) is gone.
 exec %s -listen.timeout=%s "$@"
-`, goplsIdleTimeout, shellQuote(l.goplsBinary()), goplsIdleTimeout)
+`, goplsIdleTimeout, shellQuote(goplsBinary(l)), goplsIdleTimeout)
 }
 
 // launcherPath is the kernel launcher's path, argv[0] of kernel.json.
-func (l Layout) launcherPath() string { return filepath.Join(l.Bin(), "gonb-kernel") }
+func launcherPath(l layout.Layout) string { return filepath.Join(l.Bin(), "gonb-kernel") }
 
 // shimPath is the wrapper's path.
-func (l Layout) shimPath() string { return filepath.Join(l.ShimDir(), "go") }
+func shimPath(l layout.Layout) string { return filepath.Join(l.ShimDir(), "go") }
 
 // shellQuote quotes s for a POSIX shell.
 func shellQuote(s string) string {

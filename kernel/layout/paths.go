@@ -1,14 +1,12 @@
-package setup
+package layout
 
 import (
 	"bytes"
 	"encoding/json"
 	"fmt"
-	"maps"
 	"os"
 	"os/exec"
 	"path/filepath"
-	"slices"
 	"strings"
 
 	"golang.org/x/mod/modfile"
@@ -24,7 +22,8 @@ const KernelName = "beamnote"
 // DisplayName is the name Jupyter shows for the kernel.
 const DisplayName = "beamnote · Go optics"
 
-// Layout holds the absolute paths that set-up reads and writes.
+// Layout holds the absolute paths that the installer, the notebook server
+// and the notebook runner read and write.
 type Layout struct {
 	Root   string // the checkout (directory holding go.mod of ModulePath)
 	State  string // project-local state, Root/.beamnote by default
@@ -77,7 +76,7 @@ func userJupyterData(jup string) (string, error) {
 	}
 	home, err := os.UserHomeDir()
 	if err != nil {
-		return "", fmt.Errorf("setup: no home directory for a per-user kernelspec: %w", err)
+		return "", fmt.Errorf("layout: no home directory for a per-user kernelspec: %w", err)
 	}
 	if macOS {
 		return filepath.Join(home, "Library", "Jupyter"), nil
@@ -104,11 +103,11 @@ func FindLayout(dir string) (Layout, error) {
 		}
 	}
 	if root == "" {
-		return Layout{}, fmt.Errorf("setup: no go.mod of module %s at or above %s", ModulePath, abs)
+		return Layout{}, fmt.Errorf("layout: no go.mod of module %s at or above %s", ModulePath, abs)
 	}
 	goCmd, err := exec.LookPath("go")
 	if err != nil {
-		return Layout{}, fmt.Errorf("setup: the go command is not on PATH (install Go 1.26 from https://go.dev/dl): %w", err)
+		return Layout{}, fmt.Errorf("layout: the go command is not on PATH (install Go 1.26 from https://go.dev/dl): %w", err)
 	}
 	goCmd, err = filepath.Abs(goCmd)
 	if err != nil {
@@ -116,64 +115,75 @@ func FindLayout(dir string) (Layout, error) {
 	}
 	// Resolve a go found through our own shim back to the real command.
 	if b, err := os.ReadFile(goCmd); err == nil && bytes.HasPrefix(b, []byte("#!")) {
-		if real := shimRealGo(b); real != "" {
+		if real := ShimVar(b, "REAL_GO"); real != "" {
 			goCmd = real
 		}
 	}
 	return Layout{Root: root, State: filepath.Join(root, ".beamnote"), RealGo: goCmd}, nil
 }
 
-// goEnv returns the values of the named go environment variables, read
+// ShimMarker is the line that marks the go wrapper script that the
+// installer writes (.beamnote/bin/shim/go).
+const ShimMarker = "# beamnote go wrapper"
+
+// ShimVar reads back an assignment name='value' (the value quoted as one
+// POSIX shell word) from a go wrapper script, or returns "" if script is no
+// wrapper or has no such assignment. [FindLayout] reads REAL_GO with it, to
+// see through a wrapper found on PATH.
+func ShimVar(script []byte, name string) string {
+	if !bytes.Contains(script, []byte(ShimMarker)) {
+		return ""
+	}
+	for _, line := range strings.Split(string(script), "\n") {
+		if v, ok := strings.CutPrefix(line, name+"="); ok {
+			v = strings.TrimSuffix(strings.TrimPrefix(v, "'"), "'")
+			return strings.ReplaceAll(v, `'\''`, "'")
+		}
+	}
+	return ""
+}
+
+// GoEnv returns the values of the named go environment variables, read
 // with one `go env -json` call.
-func (l Layout) goEnv(names ...string) (map[string]string, error) {
-	out, err := l.output("", l.RealGo, append([]string{"env", "-json"}, names...)...)
+func (l Layout) GoEnv(names ...string) (map[string]string, error) {
+	out, err := Output("", l.RealGo, append([]string{"env", "-json"}, names...)...)
 	if err != nil {
 		return nil, err
 	}
 	var m map[string]string
 	if err := json.Unmarshal([]byte(out), &m); err != nil {
-		return nil, fmt.Errorf("setup: %s env -json: %w", l.RealGo, err)
+		return nil, fmt.Errorf("layout: %s env -json: %w", l.RealGo, err)
 	}
 	return m, nil
 }
 
-// CellGoFlags are the build flags of every cell (and of [Warm], which must
-// match them for the build cache to hit). The go wrapper adds them to
-// "go build" and "go test" in gonb's cell module only, so "!go" commands in
-// cells run with the user's own flags. -mod=mod lets "go build" add missing
-// requirements to the cell's go.mod; -ldflags=-w omits DWARF debug
-// information, which shortens linking of plotting cells (stack traces still
-// carry file and line from the runtime's own tables). No value may contain
-// a space: the wrapper splits the list into words.
-const CellGoFlags = "-mod=mod -ldflags=-w"
+// DefaultPath is the PATH the kernel falls back to when it inherits none.
+const DefaultPath = "/usr/local/sbin:/usr/local/bin:/usr/sbin:/usr/bin:/sbin:/bin"
 
-// defaultPath is the PATH the kernel falls back to when it inherits none.
-const defaultPath = "/usr/local/sbin:/usr/local/bin:/usr/sbin:/usr/bin:/sbin:/bin"
-
-// kernelPathDirs are the directories that come first on the kernel's PATH:
+// KernelPathDirs are the directories that come first on the kernel's PATH:
 // the go wrapper, the pinned tools and the go command's directory.
-func (l Layout) kernelPathDirs() []string {
+func (l Layout) KernelPathDirs() []string {
 	return []string{l.ShimDir(), l.Bin(), filepath.Dir(l.RealGo)}
 }
 
-// KernelEnv is the environment that cells build and run with, used by
-// [Warm] and by the doctor so that they build cells as the kernel does.
-// kernel.json holds every entry but PATH. PATH here is [Layout.ShimDir], the
-// pinned tools and the go command's directory, then the current PATH; the
-// kernel's launcher (see [Layout.WriteKernelspec]) puts the same directories
-// before the PATH the kernel inherits, because kernelspec env values cannot
-// refer to other variables and a PATH there would replace the user's, which
-// "!" shell commands in cells need.
+// KernelEnv is the environment that cells build and run with, used by the
+// installer's cache warm-up and by the doctor so that they build cells as
+// the kernel does. kernel.json holds every entry but PATH. PATH here is
+// [Layout.KernelPathDirs], then the current PATH; the kernel's launcher
+// (see install.WriteKernelspec) puts the same directories before the PATH
+// the kernel inherits, because kernelspec env values cannot refer to other
+// variables and a PATH there would replace the user's, which "!" shell
+// commands in cells need.
 func (l Layout) KernelEnv() (map[string]string, error) {
-	ge, err := l.goEnv("GOCACHE", "GOMODCACHE", "GOPATH")
+	ge, err := l.GoEnv("GOCACHE", "GOMODCACHE", "GOPATH")
 	if err != nil {
 		return nil, err
 	}
 	inherited := os.Getenv("PATH")
 	if inherited == "" {
-		inherited = defaultPath
+		inherited = DefaultPath
 	}
-	path := strings.Join(append(l.kernelPathDirs(), inherited), string(os.PathListSeparator))
+	path := strings.Join(append(l.KernelPathDirs(), inherited), string(os.PathListSeparator))
 	return map[string]string{
 		"PATH":          path,
 		"GOPROXY":       "off",
@@ -183,23 +193,4 @@ func (l Layout) KernelEnv() (map[string]string, error) {
 		"GOPATH":        ge["GOPATH"],
 		"BEAMNOTE_ROOT": l.Root,
 	}, nil
-}
-
-// Environ returns the current environment with the variables of m set, in
-// os/exec form: every name of m replaces any inherited value of the same name
-// (removed, not shadowed, since programs differ in which duplicate they read:
-// Python's os.environ keeps the first), and m's entries follow in sorted
-// order.
-func Environ(m map[string]string) []string {
-	var env []string
-	for _, kv := range os.Environ() {
-		name, _, _ := strings.Cut(kv, "=")
-		if _, ok := m[name]; !ok {
-			env = append(env, kv)
-		}
-	}
-	for _, k := range slices.Sorted(maps.Keys(m)) {
-		env = append(env, k+"="+m[k])
-	}
-	return env
 }

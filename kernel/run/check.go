@@ -1,64 +1,23 @@
-package setup
+package run
 
 import (
-	"bytes"
-	"encoding/json"
 	"fmt"
 	"html"
-	"io"
-	"os"
-	"path/filepath"
 	"regexp"
 	"slices"
 	"strings"
 	"unicode/utf8"
+
+	"github.com/beamnote/beamnote/kernel/ipynb"
 )
 
 // FigureTag is the cell tag (cell metadata "tags") that marks a code cell
 // whose executed outputs must include an image/svg+xml figure.
 const FigureTag = "figure"
 
-// Notebook is the part of an nbformat 4 document that the checks read.
-type Notebook struct {
-	Cells []Cell `json:"cells"`
-}
-
-// Cell is one notebook cell.
-type Cell struct {
-	CellType string          `json:"cell_type"`
-	Source   json.RawMessage `json:"source"` // a string or a list of strings
-	Metadata struct {
-		Tags []string `json:"tags"`
-	} `json:"metadata"`
-	Outputs []Output `json:"outputs"`
-}
-
-// Output is one cell output.
-type Output struct {
-	OutputType string                     `json:"output_type"`
-	Name       string                     `json:"name"` // stream name
-	Text       json.RawMessage            `json:"text"`
-	Data       map[string]json.RawMessage `json:"data"`
-	EName      string                     `json:"ename"`
-	EValue     string                     `json:"evalue"`
-	Traceback  []string                   `json:"traceback"`
-}
-
-// multiline decodes nbformat's "string or list of strings".
-func multiline(raw json.RawMessage) string {
-	if len(raw) == 0 {
-		return ""
-	}
-	var s string
-	if json.Unmarshal(raw, &s) == nil {
-		return s
-	}
-	var parts []string
-	if json.Unmarshal(raw, &parts) == nil {
-		return strings.Join(parts, "")
-	}
-	return string(raw)
-}
+// NoFigure is the problem [CheckExecuted] reports for a notebook in which no
+// cell produced an image/svg+xml figure.
+const NoFigure = "no cell produced an image/svg+xml figure"
 
 // crashRE matches what a cell program that panicked, was killed or called
 // os.Exit with a nonzero code leaves on its standard error stream. The Go
@@ -101,14 +60,14 @@ var ansiRE = regexp.MustCompile("\x1b\\[[0-9;]*m")
 // exited nonzero (see crashRE), or when it has any other error output. The
 // problem says which, in that order of preference, with the compiler's
 // messages by cell and line, the "error:" line, or the crash's first line.
-func CheckExecuted(nb Notebook) []string {
+func CheckExecuted(nb ipynb.Notebook) []string {
 	var problems []string
 	figures := 0
 	for i, c := range nb.Cells {
 		if c.CellType != "code" {
 			continue
 		}
-		where := fmt.Sprintf("cell %d (%s)", i, firstLine(multiline(c.Source)))
+		where := fmt.Sprintf("cell %d (%s)", i, firstLine(ipynb.Text(c.Source)))
 		if p := cellFailure(c.Outputs); p != "" {
 			problems = append(problems, where+": "+p)
 		}
@@ -128,21 +87,21 @@ func CheckExecuted(nb Notebook) []string {
 		}
 	}
 	if figures == 0 {
-		problems = append(problems, "no cell produced an image/svg+xml figure")
+		problems = append(problems, NoFigure)
 	}
 	return problems
 }
 
 // cellFailure says why a cell with these outputs failed, or returns "".
-func cellFailure(outs []Output) string {
+func cellFailure(outs []ipynb.Output) string {
 	// Jupyter may split a stream over several outputs: join them, so that
 	// a line is a line.
 	streams := map[string]string{}
-	var errOut *Output
+	var errOut *ipynb.Output
 	for i, o := range outs {
 		switch o.OutputType {
 		case "stream":
-			streams[o.Name] += ansiRE.ReplaceAllString(multiline(o.Text), "")
+			streams[o.Name] += ansiRE.ReplaceAllString(ipynb.Text(o.Text), "")
 		case "error":
 			if errOut == nil {
 				errOut = &outs[i]
@@ -208,7 +167,7 @@ var (
 // around it, then the message), or else from gonb's HTML error report. A
 // message outside the cell (a library package failed to build) keeps the
 // compiler's own file:line form. Runtime errors give "".
-func compilerMessages(outs []Output) string {
+func compilerMessages(outs []ipynb.Output) string {
 	var msgs []string
 	for _, o := range outs {
 		if o.OutputType != "error" {
@@ -234,7 +193,7 @@ func compilerMessages(outs []Output) string {
 		if !ok {
 			continue
 		}
-		h := multiline(raw)
+		h := ipynb.Text(raw)
 		for _, m := range gonbErrRE.FindAllStringSubmatch(h, -1) {
 			msgs = append(msgs, strings.TrimSpace(m[1])+": "+html.UnescapeString(strings.TrimSpace(m[2])))
 		}
@@ -268,82 +227,4 @@ func firstLine(s string) string {
 		line = string([]rune(line)[:57]) + "..."
 	}
 	return line
-}
-
-// ExecuteNotebooks runs each notebook headless with the beamnote kernel
-// (jupyter nbconvert --execute), writes the executed notebook and its HTML
-// export under outDir, and checks both: [CheckExecuted] on the notebook, and
-// an inline <svg> figure in the HTML. It returns an error listing every
-// problem in every notebook.
-func (l Layout) ExecuteNotebooks(paths []string, outDir string, user bool, log io.Writer) error {
-	jup := Jupyter()
-	if jup == "" {
-		return fmt.Errorf("setup: jupyter not found; run kernel/install-deps.sh (Debian/Ubuntu) or see README")
-	}
-	if len(paths) == 0 {
-		return fmt.Errorf("setup: no notebooks to execute")
-	}
-	// nbconvert runs in the checkout; paths given relative to the caller's
-	// directory must still name the same files.
-	outDir, err := filepath.Abs(outDir)
-	if err != nil {
-		return err
-	}
-	abs := make([]string, len(paths))
-	for i, p := range paths {
-		if abs[i], err = filepath.Abs(p); err != nil {
-			return err
-		}
-	}
-	if err := os.MkdirAll(outDir, 0o755); err != nil {
-		return fmt.Errorf("setup: output directory for executed notebooks: %w", err)
-	}
-	env := l.JupyterEnv(user)
-	env["BEAMNOTE_HEADLESS"] = "1"
-	var all []string
-	seen := make(map[string]string) // output name → notebook
-	for i, p := range paths {
-		name := strings.TrimSuffix(filepath.Base(p), ".ipynb")
-		if q, ok := seen[name]; ok {
-			all = append(all, fmt.Sprintf("%s: same file name as %s; its results in %s would overwrite the other's", p, q, outDir))
-			continue
-		}
-		seen[name] = p
-		fmt.Fprintf(log, "beamnote: executing %s\n", p)
-		if err := l.run(log, l.Root, env, jup, "nbconvert", "--to", "notebook", "--execute",
-			"--ExecutePreprocessor.kernel_name="+KernelName,
-			"--ExecutePreprocessor.timeout=600",
-			// Run every cell and report all failures below, not only the first.
-			"--allow-errors",
-			"--output-dir", outDir, "--output", name, abs[i]); err != nil {
-			all = append(all, fmt.Sprintf("%s: %v", p, err))
-			continue
-		}
-		executed := filepath.Join(outDir, name+".ipynb")
-		b, err := os.ReadFile(executed)
-		if err != nil {
-			all = append(all, fmt.Sprintf("%s: %v", p, err))
-			continue
-		}
-		var nb Notebook
-		if err := json.Unmarshal(b, &nb); err != nil {
-			all = append(all, fmt.Sprintf("%s: executed notebook is not JSON: %v", p, err))
-			continue
-		}
-		for _, prob := range CheckExecuted(nb) {
-			all = append(all, p+": "+prob)
-		}
-		if err := l.run(log, l.Root, env, jup, "nbconvert", "--to", "html", "--output-dir", outDir, executed); err != nil {
-			all = append(all, fmt.Sprintf("%s: HTML export: %v", p, err))
-			continue
-		}
-		html, err := os.ReadFile(filepath.Join(outDir, name+".html"))
-		if err != nil || !bytes.Contains(html, []byte("<svg")) {
-			all = append(all, fmt.Sprintf("%s: the HTML export shows no inline SVG figure", p))
-		}
-	}
-	if len(all) > 0 {
-		return fmt.Errorf("setup: notebook checks failed:\n  %s", strings.Join(all, "\n  "))
-	}
-	return nil
 }

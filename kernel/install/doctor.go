@@ -1,4 +1,4 @@
-package setup
+package install
 
 import (
 	"bytes"
@@ -9,6 +9,9 @@ import (
 	"os/exec"
 	"path/filepath"
 	"strings"
+	"unicode/utf8"
+
+	"github.com/beamnote/beamnote/kernel/layout"
 )
 
 // Check is one line of the doctor's report.
@@ -25,7 +28,7 @@ const fixDeps = "run `make notebook` (it calls kernel/install-deps.sh: Debian/Ub
 
 // Doctor inspects the machine and the checkout and reports what is missing,
 // with the fix for each item. user selects the per-user kernelspec.
-func Doctor(l Layout, user bool) []Check {
+func Doctor(l layout.Layout, user bool) []Check {
 	var cs []Check
 	add := func(name string, err error, detail, fix string) {
 		c := Check{Name: name, OK: err == nil, Detail: detail, Fix: fix}
@@ -35,20 +38,20 @@ func Doctor(l Layout, user bool) []Check {
 		cs = append(cs, c)
 	}
 
-	ge, err := l.goEnv("GOVERSION")
+	ge, err := l.GoEnv("GOVERSION")
 	if err == nil {
-		err = l.checkGoVersion(ge["GOVERSION"])
+		err = checkGoVersion(l, ge["GOVERSION"])
 	}
 	add("Go ≥ "+MinGo, err, ge["GOVERSION"]+" at "+l.RealGo, "install Go "+MinGo+" or newer from https://go.dev/dl and put it on PATH")
 
-	jup := Jupyter()
+	jup := layout.Jupyter()
 	var jerr error
 	detail := jup
 	if jup == "" {
 		jerr = fmt.Errorf("no jupyter command")
 	}
 	add("jupyter", jerr, detail, fixDeps)
-	py := Python()
+	py := layout.Python()
 	for _, mod := range []struct{ name, module string }{
 		{"nbconvert (headless execution)", "nbconvert"},
 		{"nbclient", "nbclient"},
@@ -75,59 +78,59 @@ func Doctor(l Layout, user bool) []Check {
 	}{
 		{"gonb", gonbPkg, l.Root, ""},
 		{"goimports", "golang.org/x/tools", l.Root, ""},
-		{"gopls", goplsPkg, l.GoplsModule(), " (completion, help)"},
+		{"gopls", goplsPkg, GoplsModule(l), " (completion, help)"},
 	} {
 		bin := filepath.Join(l.Bin(), tool.name)
 		if tool.name == "gopls" {
-			bin = l.goplsBinary() // .beamnote/bin/gopls is the script that starts it
+			bin = goplsBinary(l) // .beamnote/bin/gopls is the script that starts it
 		}
-		want, err := l.pinnedVersion(tool.dir, tool.mod)
+		want, err := pinnedVersion(l, tool.dir, tool.mod)
 		if err == nil {
 			err = checkBuilt(bin, tool.mod, want)
 		}
 		add(tool.name+" "+want+tool.what, err, bin, "run `make kernel`")
 	}
-	b, serr := os.ReadFile(l.shimPath())
+	b, serr := os.ReadFile(shimPath(l))
 	if serr == nil && shimRealGo(b) != l.RealGo {
-		serr = fmt.Errorf("%s calls %s, but go is %s", l.shimPath(), shimRealGo(b), l.RealGo)
+		serr = fmt.Errorf("%s calls %s, but go is %s", shimPath(l), shimRealGo(b), l.RealGo)
 	}
 	if serr == nil && shimRoot(b) != l.Root {
-		serr = fmt.Errorf("%s makes cells import the checkout at %s, but this checkout is %s (moved or copied)", l.shimPath(), shimRoot(b), l.Root)
+		serr = fmt.Errorf("%s makes cells import the checkout at %s, but this checkout is %s (moved or copied)", shimPath(l), shimRoot(b), l.Root)
 	}
-	add("go wrapper for cells", serr, l.shimPath(), "run `make kernel`")
+	add("go wrapper for cells", serr, shimPath(l), "run `make kernel`")
 
-	kj, kerr := l.KernelspecPath(user)
+	kj, kerr := KernelspecPath(l, user)
 	if kerr == nil {
-		kerr = l.checkKernelspec(kj)
+		kerr = checkKernelspec(l, kj)
 	}
-	add("kernelspec "+KernelName, kerr, kj, "run `make kernel` (or `make kernel KERNEL_SCOPE=user`)")
+	add("kernelspec "+layout.KernelName, kerr, kj, "run `make kernel` (or `make kernel KERNEL_SCOPE=user`)")
 
-	add("warm build cache", l.checkWarm(), "opticslib and its dependencies compiled for cells", "run `make kernel`")
+	add("warm build cache", checkWarm(l), "opticslib and its dependencies compiled for cells", "run `make kernel`")
 	return cs
 }
 
 // KernelspecPath returns the kernel.json that the kernel uses: the
 // project-local one, or the per-user one if user is set.
-func (l Layout) KernelspecPath(user bool) (string, error) {
+func KernelspecPath(l layout.Layout, user bool) (string, error) {
 	dataDir := l.JupyterData()
 	if user {
-		d, err := UserJupyterData()
+		d, err := layout.UserJupyterData()
 		if err != nil {
 			return "", err
 		}
 		dataDir = d
 	}
-	return filepath.Join(KernelDir(dataDir), "kernel.json"), nil
+	return filepath.Join(layout.KernelDir(dataDir), "kernel.json"), nil
 }
 
 // CheckKernelspec reports an error unless the kernelspec (project-local, or
 // per-user if user is set) exists and launches this checkout's kernel.
-func (l Layout) CheckKernelspec(user bool) error {
-	kj, err := l.KernelspecPath(user)
+func CheckKernelspec(l layout.Layout, user bool) error {
+	kj, err := KernelspecPath(l, user)
 	if err != nil {
 		return err
 	}
-	return l.checkKernelspec(kj)
+	return checkKernelspec(l, kj)
 }
 
 // checkKernelspec reports an error unless the kernelspec at path starts
@@ -135,7 +138,7 @@ func (l Layout) CheckKernelspec(user bool) error {
 // wrapper first on PATH. kernel.json and the launcher hold absolute paths,
 // so a checkout that moved, or a per-user kernelspec written from another
 // checkout, runs the wrong code or nothing.
-func (l Layout) checkKernelspec(path string) error {
+func checkKernelspec(l layout.Layout, path string) error {
 	b, err := os.ReadFile(path)
 	if err != nil {
 		return err
@@ -162,7 +165,7 @@ func (l Layout) checkKernelspec(path string) error {
 	if root != l.Root {
 		return fmt.Errorf("%s was written for the checkout at %q, not this one (%s): the checkout moved, or another checkout installed it", path, root, l.Root)
 	}
-	if want := l.launcherPath(); spec.Argv[0] != want {
+	if want := launcherPath(l); spec.Argv[0] != want {
 		return fmt.Errorf("%s launches %s, want %s", path, spec.Argv[0], want)
 	}
 	if _, ok := spec.Env["PATH"]; ok {
@@ -172,7 +175,7 @@ func (l Layout) checkKernelspec(path string) error {
 	if err != nil {
 		return fmt.Errorf("%s launches %s, which is missing", path, spec.Argv[0])
 	}
-	if !bytes.Equal(b, l.launcherScript()) {
+	if !bytes.Equal(b, launcherScript(l)) {
 		return fmt.Errorf("%s was written for another checkout or go command", spec.Argv[0])
 	}
 	if _, err := os.Stat(filepath.Join(l.Bin(), "gonb")); err != nil {
@@ -184,7 +187,7 @@ func (l Layout) checkKernelspec(path string) error {
 // checkWarm asks the go command, in a cell module with the kernel's
 // environment, whether every importable package is up to date in the build
 // cache.
-func (l Layout) checkWarm() error {
+func checkWarm(l layout.Layout) error {
 	dir, err := os.MkdirTemp("", "beamnote-doctor-")
 	if err != nil {
 		return err
@@ -198,17 +201,29 @@ func (l Layout) checkWarm() error {
 	if err != nil {
 		return err
 	}
-	cmd := exec.Command(l.shimPath(), append([]string{"list", "-mod=mod", "-f", "{{if .Stale}}{{.ImportPath}}: {{.StaleReason}}{{end}}"}, pkgs...)...)
+	cmd := exec.Command(shimPath(l), append([]string{"list", "-mod=mod", "-f", "{{if .Stale}}{{.ImportPath}}: {{.StaleReason}}{{end}}"}, pkgs...)...)
 	cmd.Dir = dir
-	cmd.Env = Environ(env)
+	cmd.Env = layout.Environ(env)
 	out, err := cmd.Output()
 	if err != nil {
 		return fmt.Errorf("go list in a cell module: %w", err)
 	}
 	if s := strings.TrimSpace(string(out)); s != "" {
-		return fmt.Errorf("not in the build cache: %s", firstLine(s))
+		return fmt.Errorf("not in the build cache: %s", shortLine(s))
 	}
 	return nil
+}
+
+// shortLine returns the first line of s, without surrounding blanks,
+// shortened to 60 characters (runes, so that no multi-byte UTF-8 character
+// is cut).
+func shortLine(s string) string {
+	line, _, _ := strings.Cut(strings.TrimSpace(s), "\n")
+	line = strings.TrimSpace(line)
+	if utf8.RuneCountInString(line) > 60 {
+		line = string([]rune(line)[:57]) + "..."
+	}
+	return line
 }
 
 // WriteReport prints the doctor's checks, one per line, with fixes, and

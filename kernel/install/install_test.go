@@ -1,143 +1,45 @@
-package setup
+package install
 
 import (
 	"bytes"
-	"context"
 	"encoding/json"
 	"image/png"
-	"net"
-	"net/http"
-	"net/http/httptest"
 	"os"
 	"os/exec"
 	"path/filepath"
 	"slices"
 	"strings"
 	"testing"
-	"time"
-	"unicode/utf8"
+
+	"github.com/beamnote/beamnote/kernel/layout"
 )
 
-// These tests check the kernel plumbing against the formats it must speak:
-// nbformat 4 (Jupyter's notebook format documentation, "The Notebook file
-// format"), the kernelspec layout (jupyter_client documentation, "Kernel
-// specs") and PNG (image/png). No physics here.
-
-func readNotebook(t *testing.T, name string) Notebook {
-	t.Helper()
-	b, err := os.ReadFile(filepath.Join("..", "..", "testdata", "notebooks", name))
-	if err != nil {
-		t.Fatal(err)
-	}
-	var nb Notebook
-	if err := json.Unmarshal(b, &nb); err != nil {
-		t.Fatal(err)
-	}
-	return nb
-}
-
-func TestCheckExecuted(t *testing.T) {
-	if p := CheckExecuted(readNotebook(t, "executed-good.ipynb")); len(p) != 0 {
-		t.Errorf("CheckExecuted(good) = %q, want no problems", p)
-	}
-	p := CheckExecuted(readNotebook(t, "executed-bad.ipynb"))
-	for _, want := range []string{
-		`cell 0 (nb.SVG(nil, "x")): tagged "figure" but has no image/svg+xml output`,
-		`cell 1 (var m map[string]int): the cell program crashed ("panic:`,
-		`cell 2 (os.Exit(3)): the cell program crashed ("exit status 3"`,
-		`cell 3 (undefined()): error ERROR: undefined: undefined`,
-		`cell 4 (undefinedFunction()): does not compile: Cell[3]: Line 2: undefined: undefinedFunction`,
-		`cell 5 (if err := errors.New("lens \"L2\": focal length = 0 m: mu...): the cell reported an error on stdout: error: lens "L2": focal length = 0 m: must be nonzero`,
-		`cell 6 (fmt.Fprintln(os.Stderr, "error: beam: waist radius = -1 m...): the cell reported an error on stderr: error: beam: waist radius = -1 mm: must be positive (exit status 1)`,
-		`cell 7 (fmt.Println("   Error: solver did not converge")): the cell reported an error on stdout: Error: solver did not converge`,
-		`no cell produced an image/svg+xml figure`,
-	} {
-		found := false
-		for _, got := range p {
-			if strings.HasPrefix(got, want) || strings.Contains(got, want) {
-				found = true
-			}
-		}
-		if !found {
-			t.Errorf("CheckExecuted(bad) = %q, want a problem like %q", p, want)
-		}
-	}
-	// One problem per failing cell, none for cell 8, whose lines only
-	// contain "error:".
-	if len(p) != 9 {
-		t.Errorf("CheckExecuted(bad) gave %d problems, want 9: %q", len(p), p)
-	}
-}
-
-func TestMultiline(t *testing.T) {
-	for _, test := range []struct{ raw, want string }{
-		{`"a\nb"`, "a\nb"},
-		{`["a\n", "b"]`, "a\nb"},
-		{``, ""},
-	} {
-		if got := multiline(json.RawMessage(test.raw)); got != test.want {
-			t.Errorf("multiline(%s) = %q, want %q", test.raw, got, test.want)
-		}
-	}
-}
-
-func TestServeCommandRefusesRemoteAndAlwaysHasToken(t *testing.T) {
-	if Jupyter() == "" {
-		t.Skip("no jupyter on this machine")
-	}
-	l := Layout{Root: "/r", State: "/r/.beamnote", RealGo: "/usr/local/go/bin/go"}
-	for _, test := range []struct {
-		opt    ServeOptions
-		wantOK bool
-	}{
-		{ServeOptions{}, true},
-		{ServeOptions{IP: "::1"}, true},
-		{ServeOptions{IP: "0.0.0.0"}, false},
-		{ServeOptions{IP: "192.168.1.20"}, false},
-		{ServeOptions{IP: "192.168.1.20", AllowRemote: true}, true},
-		{ServeOptions{IP: "localhost"}, false}, // not an IP address
-		{ServeOptions{Port: 70000}, false},
-	} {
-		argv, env, url, err := l.ServeCommand(test.opt)
-		if (err == nil) != test.wantOK {
-			t.Errorf("ServeCommand(%+v) error = %v, want ok %v", test.opt, err, test.wantOK)
-			continue
-		}
-		if err != nil {
-			continue
-		}
-		tok := env["JUPYTER_TOKEN"]
-		if len(tok) != 48 || !strings.Contains(url, "token="+tok) {
-			t.Errorf("ServeCommand(%+v): JUPYTER_TOKEN %q, url %q; want a 48-hex-digit token in the URL", test.opt, tok, url)
-		}
-		if a := strings.Join(argv, " "); tok != "" && strings.Contains(a, tok) {
-			t.Errorf("ServeCommand(%+v): the token is on the command line %q", test.opt, a)
-		}
-	}
-}
+// These tests check the installer against the formats it must speak: the
+// kernelspec layout (jupyter_client documentation, "Kernel specs") and PNG
+// (image/png). No physics here.
 
 // installShim writes l's go wrapper under l.ShimDir and checks that the
 // go command it calls reads back from the script.
-func installShim(t *testing.T, l Layout) {
+func installShim(t *testing.T, l layout.Layout) {
 	t.Helper()
-	script := l.shimScript()
+	script := shimScript(l)
 	if got := shimRealGo(script); got != l.RealGo {
 		t.Errorf("shimRealGo(script) = %q, want %q", got, l.RealGo)
 	}
 	if err := os.MkdirAll(l.ShimDir(), 0o755); err != nil {
 		t.Fatal(err)
 	}
-	if err := os.WriteFile(l.shimPath(), script, 0o755); err != nil {
+	if err := os.WriteFile(shimPath(l), script, 0o755); err != nil {
 		t.Fatal(err)
 	}
 }
 
 // shimModInit runs "go mod init" through the wrapper in a new cell
 // directory, as gonb does, and returns the directory.
-func shimModInit(t *testing.T, l Layout) string {
+func shimModInit(t *testing.T, l layout.Layout) string {
 	t.Helper()
 	cell := t.TempDir()
-	cmd := exec.Command(l.shimPath(), "mod", "init", "gonb_test")
+	cmd := exec.Command(shimPath(l), "mod", "init", "gonb_test")
 	cmd.Dir = cell
 	cmd.Env = append(os.Environ(), "GONB_TMP_DIR="+cell, "GOFLAGS=", "GOPROXY=off")
 	if out, err := cmd.CombinedOutput(); err != nil {
@@ -148,13 +50,13 @@ func shimModInit(t *testing.T, l Layout) string {
 
 // shimCell installs the go wrapper in a temporary state directory of this
 // checkout and makes a cell module with it, or skips without a go command.
-func shimCell(t *testing.T) (Layout, string) {
+func shimCell(t *testing.T) (layout.Layout, string) {
 	t.Helper()
 	goCmd, err := exec.LookPath("go")
 	if err != nil {
 		t.Skip("no go command")
 	}
-	l, err := FindLayout(".")
+	l, err := layout.FindLayout(".")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -167,7 +69,7 @@ func shimCell(t *testing.T) (Layout, string) {
 func TestShimMakesCellModule(t *testing.T) {
 	l, cell := shimCell(t)
 	gomod, _ := os.ReadFile(filepath.Join(cell, "go.mod"))
-	for _, want := range []string{"require " + ModulePath + " v0.0.0", "replace " + ModulePath + " => " + l.Root} {
+	for _, want := range []string{"require " + layout.ModulePath + " v0.0.0", "replace " + layout.ModulePath + " => " + l.Root} {
 		if !strings.Contains(string(gomod), want) {
 			t.Errorf("cell go.mod lacks %q:\n%s", want, gomod)
 		}
@@ -184,13 +86,13 @@ func TestShimMakesCellModule(t *testing.T) {
 	if err := os.WriteFile(filepath.Join(cell, "main.go"), []byte("package main\nimport _ \"example.com/not/required\"\nfunc main() {}\n"), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	cmd := exec.Command(l.shimPath(), "get")
+	cmd := exec.Command(shimPath(l), "get")
 	cmd.Dir = cell
 	cmd.Env = append(os.Environ(), "GONB_TMP_DIR="+cell, "GOFLAGS=", "GOPROXY=off")
 	if out, err := cmd.CombinedOutput(); err != nil {
 		t.Errorf("shim get with GOPROXY=off: %v\n%s", err, out)
 	}
-	cmd = exec.Command(l.shimPath(), "get")
+	cmd = exec.Command(shimPath(l), "get")
 	cmd.Dir = cell
 	cmd.Env = append(os.Environ(), "GONB_TMP_DIR="+cell, "GOFLAGS=", "GOPROXY=https://127.0.0.1:1")
 	if err := cmd.Run(); err == nil {
@@ -199,7 +101,7 @@ func TestShimMakesCellModule(t *testing.T) {
 
 	// Outside gonb's directory the wrapper only forwards.
 	other := t.TempDir()
-	cmd = exec.Command(l.shimPath(), "mod", "init", "plain")
+	cmd = exec.Command(shimPath(l), "mod", "init", "plain")
 	cmd.Dir = other
 	cmd.Env = append(os.Environ(), "GONB_TMP_DIR="+cell, "GOFLAGS=")
 	if out, err := cmd.CombinedOutput(); err != nil {
@@ -237,26 +139,6 @@ func TestShellQuote(t *testing.T) {
 	}
 }
 
-func TestEnvironReplacesInheritedValues(t *testing.T) {
-	t.Setenv("JUPYTER_DATA_DIR", "/inherited")
-	t.Setenv("BEAMNOTE_TEST_KEEP", "kept")
-	env := Environ(map[string]string{"JUPYTER_DATA_DIR": "/project"})
-	var got []string
-	keep := false
-	for _, kv := range env {
-		if v, ok := strings.CutPrefix(kv, "JUPYTER_DATA_DIR="); ok {
-			got = append(got, v)
-		}
-		keep = keep || kv == "BEAMNOTE_TEST_KEEP=kept"
-	}
-	if len(got) != 1 || got[0] != "/project" {
-		t.Errorf("Environ: JUPYTER_DATA_DIR values %q, want exactly [/project]", got)
-	}
-	if !keep {
-		t.Errorf("Environ dropped an unrelated inherited variable")
-	}
-}
-
 // A checkout path with a space and a single quote must survive the shim's
 // quoting: into the script, back out of it, and into the cell's go.mod.
 func TestShimQuotesOddCheckoutPath(t *testing.T) {
@@ -264,7 +146,7 @@ func TestShimQuotesOddCheckoutPath(t *testing.T) {
 	if err != nil {
 		t.Skip("no go command")
 	}
-	real, err := FindLayout(".")
+	real, err := layout.FindLayout(".")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -279,9 +161,9 @@ func TestShimQuotesOddCheckoutPath(t *testing.T) {
 	if err := os.WriteFile(filepath.Join(root, "go.sum"), sum, 0o644); err != nil {
 		t.Fatal(err)
 	}
-	l := Layout{Root: root, State: filepath.Join(root, ".beamnote")}
+	l := layout.Layout{Root: root, State: filepath.Join(root, ".beamnote")}
 	l.RealGo, _ = filepath.Abs(goCmd)
-	if got := shimRoot(l.shimScript()); got != root {
+	if got := shimRoot(shimScript(l)); got != root {
 		t.Errorf("shimRoot(script) = %q, want %q", got, root)
 	}
 	installShim(t, l)
@@ -305,8 +187,8 @@ func TestShimQuotesOddCheckoutPath(t *testing.T) {
 
 func TestShimVarRoundTrip(t *testing.T) {
 	for _, v := range []string{"/usr/local/go/bin/go", "/a'", "'/b", "/c d/''/e"} {
-		l := Layout{Root: v, RealGo: v}
-		s := l.shimScript()
+		l := layout.Layout{Root: v, RealGo: v}
+		s := shimScript(l)
 		if got := shimRoot(s); got != v {
 			t.Errorf("shimRoot(script for %q) = %q", v, got)
 		}
@@ -320,22 +202,22 @@ func TestShimVarRoundTrip(t *testing.T) {
 // moved checkout, or a per-user kernelspec installed from a second clone).
 func TestCheckKernelspecStale(t *testing.T) {
 	dir := t.TempDir()
-	mine := Layout{Root: filepath.Join(dir, "mine"), State: filepath.Join(dir, "mine", ".beamnote")}
-	other := Layout{Root: filepath.Join(dir, "other"), State: filepath.Join(dir, "other", ".beamnote")}
-	for _, l := range []Layout{mine, other} {
+	mine := layout.Layout{Root: filepath.Join(dir, "mine"), State: filepath.Join(dir, "mine", ".beamnote")}
+	other := layout.Layout{Root: filepath.Join(dir, "other"), State: filepath.Join(dir, "other", ".beamnote")}
+	for _, l := range []layout.Layout{mine, other} {
 		if err := os.MkdirAll(l.Bin(), 0o755); err != nil {
 			t.Fatal(err)
 		}
 		if err := os.WriteFile(filepath.Join(l.Bin(), "gonb"), nil, 0o755); err != nil {
 			t.Fatal(err)
 		}
-		if err := os.WriteFile(l.launcherPath(), l.launcherScript(), 0o755); err != nil {
+		if err := os.WriteFile(launcherPath(l), launcherScript(l), 0o755); err != nil {
 			t.Fatal(err)
 		}
 	}
-	write := func(l Layout) string {
+	write := func(l layout.Layout) string {
 		spec := kernelspec{
-			Argv: []string{l.launcherPath(), "--kernel", "{connection_file}"},
+			Argv: []string{launcherPath(l), "--kernel", "{connection_file}"},
 			Env:  map[string]string{"BEAMNOTE_ROOT": l.Root},
 			Metadata: map[string]any{
 				"beamnote": map[string]string{"root": l.Root},
@@ -351,28 +233,28 @@ func TestCheckKernelspecStale(t *testing.T) {
 		}
 		return p
 	}
-	if err := mine.checkKernelspec(write(mine)); err != nil {
+	if err := checkKernelspec(mine, write(mine)); err != nil {
 		t.Errorf("checkKernelspec(own kernelspec) = %v, want nil", err)
 	}
-	err := mine.checkKernelspec(write(other))
+	err := checkKernelspec(mine, write(other))
 	if err == nil || !strings.Contains(err.Error(), other.Root) {
 		t.Errorf("checkKernelspec(other checkout's kernelspec) = %v, want an error naming %s", err, other.Root)
 	}
 	// A kernelspec of an older beamnote-kernel: gonb directly, PATH in env.
 	old := write(mine)
 	b, _ := os.ReadFile(old)
-	b = bytes.Replace(b, []byte(mine.launcherPath()), []byte(filepath.Join(mine.Bin(), "gonb")), 1)
+	b = bytes.Replace(b, []byte(launcherPath(mine)), []byte(filepath.Join(mine.Bin(), "gonb")), 1)
 	if err := os.WriteFile(old, b, 0o644); err != nil {
 		t.Fatal(err)
 	}
-	if err := mine.checkKernelspec(old); err == nil {
+	if err := checkKernelspec(mine, old); err == nil {
 		t.Errorf("checkKernelspec(kernelspec that starts gonb directly) = nil, want an error")
 	}
 	// A launcher written for another go command.
-	if err := os.WriteFile(mine.launcherPath(), Layout{Root: mine.Root, State: mine.State, RealGo: "/opt/go/bin/go"}.launcherScript(), 0o755); err != nil {
+	if err := os.WriteFile(launcherPath(mine), launcherScript(layout.Layout{Root: mine.Root, State: mine.State, RealGo: "/opt/go/bin/go"}), 0o755); err != nil {
 		t.Fatal(err)
 	}
-	if err := mine.checkKernelspec(write(mine)); err == nil {
+	if err := checkKernelspec(mine, write(mine)); err == nil {
 		t.Errorf("checkKernelspec with a launcher for another go command = nil, want an error")
 	}
 }
@@ -383,7 +265,7 @@ func TestCheckKernelspecStale(t *testing.T) {
 // tools and the go command's directory must come first, and the PATH the
 // kernel inherited must follow, for "!" shell commands in cells.
 func TestKernelspecKeepsUserPath(t *testing.T) {
-	l, err := FindLayout(".")
+	l, err := layout.FindLayout(".")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -397,7 +279,7 @@ func TestKernelspecKeepsUserPath(t *testing.T) {
 		t.Fatal(err)
 	}
 	data := filepath.Join(l.State, "jupyter")
-	kdir, err := l.WriteKernelspec(data)
+	kdir, err := WriteKernelspec(l, data)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -409,7 +291,7 @@ func TestKernelspecKeepsUserPath(t *testing.T) {
 	if err := json.Unmarshal(b, &spec); err != nil {
 		t.Fatal(err)
 	}
-	if err := l.checkKernelspec(filepath.Join(kdir, "kernel.json")); err != nil {
+	if err := checkKernelspec(l, filepath.Join(kdir, "kernel.json")); err != nil {
 		t.Errorf("checkKernelspec(written kernelspec) = %v, want nil", err)
 	}
 	// Compile errors as text in the error output (see the package doc).
@@ -419,7 +301,7 @@ func TestKernelspecKeepsUserPath(t *testing.T) {
 	userDir := filepath.Join(l.State, "user tools")
 	t.Setenv("PATH", userDir+string(os.PathListSeparator)+"/usr/bin:/bin")
 	cmd := exec.Command(spec.Argv[0], spec.Argv[1:]...)
-	cmd.Env = Environ(spec.Env)
+	cmd.Env = layout.Environ(spec.Env)
 	if out, err := cmd.CombinedOutput(); err != nil {
 		t.Fatalf("%s: %v\n%s", spec.Argv[0], err, out)
 	}
@@ -433,46 +315,8 @@ func TestKernelspecKeepsUserPath(t *testing.T) {
 	}
 }
 
-func TestFirstLineKeepsRunes(t *testing.T) {
-	long := strings.Repeat("λ", 70) // 2 bytes each
-	for _, test := range []struct{ in, want string }{
-		{"\n%%\n  w0 := 1.2  \nmore", "w0 := 1.2"},
-		{strings.Repeat("a", 60), strings.Repeat("a", 60)},
-		{strings.Repeat("a", 61), strings.Repeat("a", 57) + "..."},
-		{long, strings.Repeat("λ", 57) + "..."},
-		{strings.Repeat("a", 28) + long, strings.Repeat("a", 28) + strings.Repeat("λ", 29) + "..."},
-		{strings.Repeat("µ", 60), strings.Repeat("µ", 60)},
-	} {
-		got := firstLine(test.in)
-		if got != test.want || !utf8.ValidString(got) {
-			t.Errorf("firstLine(%q) = %q, want %q", test.in, got, test.want)
-		}
-	}
-}
-
-func TestUserJupyterDataFollowsXDG(t *testing.T) {
-	if _, err := os.Stat("/System/Library"); err == nil {
-		t.Skip("macOS keeps Jupyter data in ~/Library/Jupyter")
-	}
-	xdg := t.TempDir()
-	t.Setenv("JUPYTER_DATA_DIR", "")
-	t.Setenv("XDG_DATA_HOME", xdg)
-	want := filepath.Join(xdg, "jupyter")
-	// With the jupyter command (asked with `jupyter --data-dir`) and
-	// without one (the XDG rule applied here).
-	for _, jup := range []string{Jupyter(), ""} {
-		if got, err := userJupyterData(jup); err != nil || got != want {
-			t.Errorf("userJupyterData(%q) with XDG_DATA_HOME=%s = %q, %v; want %q", jup, xdg, got, err, want)
-		}
-	}
-	t.Setenv("JUPYTER_DATA_DIR", "/elsewhere/jupyter")
-	if got, err := UserJupyterData(); err != nil || got != "/elsewhere/jupyter" {
-		t.Errorf("UserJupyterData() with JUPYTER_DATA_DIR=/elsewhere/jupyter = %q, %v", got, err)
-	}
-}
-
 func TestCheckGoVersion(t *testing.T) {
-	l := Layout{RealGo: "/usr/local/go/bin/go"}
+	l := layout.Layout{RealGo: "/usr/local/go/bin/go"}
 	for _, test := range []struct {
 		goVersion string
 		wantOK    bool
@@ -488,80 +332,8 @@ func TestCheckGoVersion(t *testing.T) {
 		{"", false},
 		{"unknown", false},
 	} {
-		if err := l.checkGoVersion(test.goVersion); (err == nil) != test.wantOK {
+		if err := checkGoVersion(l, test.goVersion); (err == nil) != test.wantOK {
 			t.Errorf("checkGoVersion(%q) = %v, want ok %v", test.goVersion, err, test.wantOK)
-		}
-	}
-}
-
-func TestWaitServing(t *testing.T) {
-	srv := httptest.NewServer(http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
-		http.Error(w, "forbidden", http.StatusForbidden) // any answer will do
-	}))
-	defer srv.Close()
-	ctx, cancel := context.WithTimeout(context.Background(), 10*time.Second)
-	defer cancel()
-	if err := WaitServing(ctx, srv.URL+"/tree?token=x"); err != nil {
-		t.Errorf("WaitServing(running server) = %v, want nil", err)
-	}
-
-	ln, err := net.Listen("tcp", "127.0.0.1:0")
-	if err != nil {
-		t.Fatal(err)
-	}
-	url := "http://" + ln.Addr().String() + "/tree"
-	ln.Close()
-	ctx, cancel = context.WithTimeout(context.Background(), 500*time.Millisecond)
-	defer cancel()
-	if err := WaitServing(ctx, url); err == nil {
-		t.Errorf("WaitServing(nothing listening) = nil, want an error")
-	}
-}
-
-func TestCrashOnlyOnStderr(t *testing.T) {
-	out := func(name, text string) Output {
-		raw, _ := json.Marshal(text)
-		return Output{OutputType: "stream", Name: name, Text: raw}
-	}
-	svg := Output{OutputType: "display_data", Data: map[string]json.RawMessage{"image/svg+xml": json.RawMessage(`"<svg/>"`)}}
-	for _, test := range []struct {
-		out  Output
-		want int
-	}{
-		{out("stdout", "signal: 3.2 dB\nexit status 1 is what the tool returned\n"), 0},
-		{out("stderr", "exit status 3\n"), 1},
-		{out("stderr", "signal: killed\n"), 1},
-		{out("stderr", "the detector signal: 3 dB\n"), 0},
-	} {
-		nb := Notebook{Cells: []Cell{{CellType: "code", Source: json.RawMessage(`"x"`), Outputs: []Output{test.out, svg}}}}
-		if got := CheckExecuted(nb); len(got) != test.want {
-			t.Errorf("CheckExecuted(%s %q) = %q, want %d problems", test.out.Name, multiline(test.out.Text), got, test.want)
-		}
-	}
-}
-
-// TestErrorLine checks which stream lines make a cell fail: a line that
-// starts with "error:" in any case after blanks, on stdout or stderr, even
-// when Jupyter split the stream over several outputs; not "error:" inside a
-// line.
-func TestErrorLine(t *testing.T) {
-	out := func(name string, text ...string) Output {
-		raw, _ := json.Marshal(text)
-		return Output{OutputType: "stream", Name: name, Text: raw}
-	}
-	for _, test := range []struct {
-		outs []Output
-		want string // "" for no problem
-	}{
-		{[]Output{out("stdout", "error: no focus\n")}, "the cell reported an error on stdout: error: no focus"},
-		{[]Output{out("stdout", "w = 1 mm\n", "\tERROR: no focus\n")}, "the cell reported an error on stdout: ERROR: no focus"},
-		{[]Output{out("stderr", "Error: x\n"), out("stderr", "exit status 1\n")}, "the cell reported an error on stderr: Error: x (exit status 1)"},
-		{[]Output{out("stdout", "w = 1 mm\ner"), out("stdout", "ror: split\n")}, "the cell reported an error on stdout: error: split"},
-		{[]Output{out("stdout", "focus error: 0.1 mm\n", "errors: none\n", "error 3 dB\n")}, ""},
-		{[]Output{out("stderr", "warning: error: x\n")}, ""},
-	} {
-		if got := cellFailure(test.outs); got != test.want {
-			t.Errorf("cellFailure(%+v) = %q, want %q", test.outs, got, test.want)
 		}
 	}
 }
@@ -578,7 +350,7 @@ func TestShimAddsCellFlags(t *testing.T) {
 	if err := os.WriteFile(fake, []byte("#!/bin/sh\necho \"$@\" > "+shellQuote(record)+"\n"), 0o755); err != nil {
 		t.Fatal(err)
 	}
-	l := Layout{Root: t.TempDir(), State: state, RealGo: fake}
+	l := layout.Layout{Root: t.TempDir(), State: state, RealGo: fake}
 	installShim(t, l)
 	cell, other := t.TempDir(), t.TempDir()
 	for _, test := range []struct {
@@ -592,9 +364,9 @@ func TestShimAddsCellFlags(t *testing.T) {
 		{other, []string{"build", "-o", "bin"}, "build -o bin"},
 	} {
 		os.Remove(record)
-		cmd := exec.Command(l.shimPath(), test.args...)
+		cmd := exec.Command(shimPath(l), test.args...)
 		cmd.Dir = test.dir
-		cmd.Env = Environ(map[string]string{"GONB_TMP_DIR": cell})
+		cmd.Env = layout.Environ(map[string]string{"GONB_TMP_DIR": cell})
 		if out, err := cmd.CombinedOutput(); err != nil {
 			t.Errorf("shim %v: %v\n%s", test.args, err, out)
 			continue
@@ -616,11 +388,11 @@ func TestCheckBuilt(t *testing.T) {
 		t.Skip(err)
 	}
 	path, version, err := BuiltVersion(self)
-	if err != nil || path != ModulePath {
-		t.Fatalf("BuiltVersion(test binary) = %q, %q, %v; want %q", path, version, err, ModulePath)
+	if err != nil || path != layout.ModulePath {
+		t.Fatalf("BuiltVersion(test binary) = %q, %q, %v; want %q", path, version, err, layout.ModulePath)
 	}
-	if err := checkBuilt(self, ModulePath, version); err != nil {
-		t.Errorf("checkBuilt(test binary, %s, %s) = %v, want nil", ModulePath, version, err)
+	if err := checkBuilt(self, layout.ModulePath, version); err != nil {
+		t.Errorf("checkBuilt(test binary, %s, %s) = %v, want nil", layout.ModulePath, version, err)
 	}
 	if err := checkBuilt(self, gonbPkg, "v0.11.4"); err == nil || !strings.Contains(err.Error(), "want "+gonbPkg+" v0.11.4") {
 		t.Errorf("checkBuilt(test binary, gonb v0.11.4) = %v, want an error naming the wanted version", err)

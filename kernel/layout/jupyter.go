@@ -1,11 +1,8 @@
-package setup
+package layout
 
 import (
-	"fmt"
-	"io"
 	"os"
 	"os/exec"
-	"path/filepath"
 )
 
 // Jupyter returns the jupyter command to use: $BEAMNOTE_JUPYTER if set, else
@@ -45,21 +42,4 @@ func (l Layout) JupyterEnv(user bool) map[string]string {
 		"JUPYTER_DATA_DIR": l.JupyterData(),
 		"JUPYTER_PATH":     l.JupyterData(),
 	}
-}
-
-// SignNotebooks marks the committed notebooks in notebooks/ as trusted in the
-// Jupyter data directory that the server uses, so that their stored figures
-// show (Jupyter hides rich output of untrusted notebooks).
-func (l Layout) SignNotebooks(user bool) error {
-	py := Python()
-	if py == "" {
-		return fmt.Errorf("no python3 to sign notebooks with")
-	}
-	nbs, _ := filepath.Glob(filepath.Join(l.Root, "notebooks", "*.ipynb"))
-	for _, nb := range nbs {
-		if err := l.run(io.Discard, l.Root, l.JupyterEnv(user), py, "-m", "nbformat.sign", nb); err != nil {
-			return err
-		}
-	}
-	return nil
 }

@@ -1,4 +1,4 @@
-package setup
+package install
 
 import (
 	"bytes"
@@ -8,21 +8,23 @@ import (
 	"path/filepath"
 	"slices"
 	"strings"
+
+	"github.com/beamnote/beamnote/kernel/layout"
 )
 
 // CellModule creates a cell module in dir exactly as the kernel does: it runs
 // "go mod init" through the installed go wrapper with GONB_TMP_DIR=dir. It
 // returns the environment to build in that module with.
-func CellModule(l Layout, dir string, log io.Writer) (map[string]string, error) {
+func CellModule(l layout.Layout, dir string, log io.Writer) (map[string]string, error) {
 	env, err := l.KernelEnv()
 	if err != nil {
 		return nil, err
 	}
 	env["GONB_TMP_DIR"] = dir
-	if _, err := os.Stat(l.shimPath()); err != nil {
-		return nil, fmt.Errorf("setup: the go wrapper %s is missing (run beamnote-kernel install): %w", l.shimPath(), err)
+	if _, err := os.Stat(shimPath(l)); err != nil {
+		return nil, fmt.Errorf("install: the go wrapper %s is missing (run beamnote-kernel install): %w", shimPath(l), err)
 	}
-	if err := l.run(log, dir, env, l.shimPath(), "mod", "init", "beamnote_cell"); err != nil {
+	if err := layout.Run(log, dir, env, shimPath(l), "mod", "init", "beamnote_cell"); err != nil {
 		return nil, err
 	}
 	return env, nil
@@ -30,8 +32,8 @@ func CellModule(l Layout, dir string, log io.Writer) (map[string]string, error) 
 
 // ImportablePackages lists the non-main packages of the checkout that cells
 // may import (opticslib and the notebook display package), sorted.
-func ImportablePackages(l Layout) ([]string, error) {
-	out, err := l.output(l.Root, l.RealGo, "list", "-f", "{{if ne .Name \"main\"}}{{.ImportPath}}{{end}}",
+func ImportablePackages(l layout.Layout) ([]string, error) {
+	out, err := layout.Output(l.Root, l.RealGo, "list", "-f", "{{if ne .Name \"main\"}}{{.ImportPath}}{{end}}",
 		"./opticslib/...", "./kernel/nb/...")
 	if err != nil {
 		return nil, err
@@ -53,7 +55,7 @@ func ImportablePackages(l Layout) ([]string, error) {
 // cells are built: once as it is (with the wrapper's [cellSVGOnlyFlag]) and
 // once with a reference to optplot's Figure.Save, which the wrapper builds
 // without that tag, with the PNG and PDF writers.
-func Warm(l Layout, log io.Writer) error {
+func Warm(l layout.Layout, log io.Writer) error {
 	dir, err := os.MkdirTemp("", "beamnote-warm-")
 	if err != nil {
 		return err
@@ -72,10 +74,10 @@ func Warm(l Layout, log io.Writer) error {
 			return err
 		}
 		// The same two steps gonb takes for every cell: go get, then go build.
-		if err := l.run(log, dir, env, l.shimPath(), "get"); err != nil {
+		if err := layout.Run(log, dir, env, shimPath(l), "get"); err != nil {
 			return err
 		}
-		if err := l.run(log, dir, env, l.shimPath(), "build", "-o", filepath.Join(dir, "warm")); err != nil {
+		if err := layout.Run(log, dir, env, shimPath(l), "build", "-o", filepath.Join(dir, "warm")); err != nil {
 			return err
 		}
 	}
@@ -84,7 +86,7 @@ func Warm(l Layout, log io.Writer) error {
 
 // optplotPkg is the figure package, whose Figure.Save makes the go wrapper
 // build a cell with the PNG and PDF writers.
-const optplotPkg = ModulePath + "/opticslib/optplot"
+const optplotPkg = layout.ModulePath + "/opticslib/optplot"
 
 // warmSource is the warm-up program: it imports every package of pkgs and,
 // if save is set and optplot is among them, refers to Figure.Save.

@@ -1,12 +1,13 @@
 #!/usr/bin/python3
-"""Drive the installed beamnote kernel for the real-kernel tests of kernel/setup.
+"""Drive the installed beamnote kernel for the real-kernel tests of kernel/run and kernel/install.
 
     kernelclient.py errors     execute a cell that does not compile with nbclient
     kernelclient.py complete   complete_request and inspect_request with jupyter_client
 
-Each mode prints one JSON object on stdout; the Go test (kernel_test.go) checks
-it. The Jupyter data directory comes from the environment (JUPYTER_PATH), as
-for `beamnote-kernel test`. Only Debian's nbformat, nbclient and jupyter_client.
+Each mode prints one JSON object on stdout, which kerneltest.Client decodes; the
+Go tests check it (errors: kernel/run/execute_test.go, complete:
+kernel/install/completion_test.go). The Jupyter data directory comes from the environment (JUPYTER_PATH), as
+for `beamnote-kernel run`. Only Debian's nbformat, nbclient and jupyter_client.
 """
 import json
 import os
@@ -52,7 +53,7 @@ def errors():
         NotebookClient(nb, kernel_name=KERNEL, timeout=300).execute()
     except CellExecutionError as e:
         terminal = str(e)
-    # With allow_errors, as `beamnote-kernel test` runs, for the outputs.
+    # With allow_errors, as `beamnote-kernel run` runs, for the outputs.
     nb.cells = [nbformat.v4.new_code_cell(COMPILE_ERROR), nbformat.v4.new_code_cell(AFTER)]
     NotebookClient(nb, kernel_name=KERNEL, timeout=300, allow_errors=True).execute()
     return {

@@ -1,4 +1,4 @@
-package setup
+package install
 
 import (
 	"bytes"
@@ -11,6 +11,8 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"github.com/beamnote/beamnote/kernel/layout"
 )
 
 // The go wrapper leaves out gonum/plot's back ends (cellSVGOnlyFlag) only
@@ -25,7 +27,7 @@ func TestShimSaveCellsGetWriters(t *testing.T) {
 	if err := os.WriteFile(fake, []byte("#!/bin/sh\necho \"$@\" > "+shellQuote(record)+"\necho \"$GOGC\" > "+shellQuote(gogc)+"\n"), 0o755); err != nil {
 		t.Fatal(err)
 	}
-	l := Layout{Root: t.TempDir(), State: state, RealGo: fake}
+	l := layout.Layout{Root: t.TempDir(), State: state, RealGo: fake}
 	installShim(t, l)
 	svgOnly := "build " + CellGoFlags + " " + cellSVGOnlyFlag + " -o bin"
 	full := "build " + CellGoFlags + " -o bin"
@@ -44,9 +46,9 @@ func TestShimSaveCellsGetWriters(t *testing.T) {
 			t.Fatal(err)
 		}
 		os.Remove(record)
-		cmd := exec.Command(l.shimPath(), "build", "-o", "bin")
+		cmd := exec.Command(shimPath(l), "build", "-o", "bin")
 		cmd.Dir = cell
-		cmd.Env = Environ(map[string]string{"GONB_TMP_DIR": cell})
+		cmd.Env = layout.Environ(map[string]string{"GONB_TMP_DIR": cell})
 		if out, err := cmd.CombinedOutput(); err != nil {
 			t.Errorf("shim build: %v\n%s", err, out)
 			continue
@@ -112,7 +114,7 @@ func main() {
 			t.Fatal(err)
 		}
 		bin = filepath.Join(cell, "cell")
-		cmd := exec.Command(l.shimPath(), "build", "-o", bin)
+		cmd := exec.Command(shimPath(l), "build", "-o", bin)
 		cmd.Dir = cell
 		cmd.Env = append(os.Environ(), "GONB_TMP_DIR="+cell, "GOFLAGS=", "GOPROXY=off")
 		if out, err := cmd.CombinedOutput(); err != nil {
@@ -152,7 +154,7 @@ func main() {
 // The warm-up builds the program as is and once with a reference to
 // Figure.Save, so that both kinds of cell find their packages compiled.
 func TestWarmSource(t *testing.T) {
-	pkgs := []string{ModulePath + "/kernel/nb", optplotPkg}
+	pkgs := []string{layout.ModulePath + "/kernel/nb", optplotPkg}
 	plain, save := string(warmSource(pkgs, false)), string(warmSource(pkgs, true))
 	if strings.Contains(plain, ".Save") || !strings.Contains(plain, "_ \""+optplotPkg+"\"") {
 		t.Errorf("warm source without Save:\n%s", plain)
@@ -165,8 +167,8 @@ func TestWarmSource(t *testing.T) {
 // The gopls that gonb finds on PATH ends when no kernel is connected: a
 // kernel that was killed must not leave its language server running.
 func TestGoplsScriptTimesOut(t *testing.T) {
-	l := Layout{Root: "/src/beamnote", State: "/src/beamnote/.beamnote"}
-	s := string(l.goplsScript())
+	l := layout.Layout{Root: "/src/beamnote", State: "/src/beamnote/.beamnote"}
+	s := string(goplsScript(l))
 	if !strings.Contains(s, "exec '/src/beamnote/.beamnote/libexec/gopls' -listen.timeout="+goplsIdleTimeout+` "$@"`) {
 		t.Errorf("gopls script:\n%s", s)
 	}
@@ -179,7 +181,7 @@ func TestGoplsScriptTimesOut(t *testing.T) {
 // answers depend on, all dated two hours back.
 type queryCell struct {
 	t                   *testing.T
-	l                   Layout
+	l                   layout.Layout
 	state, cell, answer string
 	calls, status, warn string
 	rel, abs, goenv     string
@@ -202,7 +204,7 @@ func newQueryCell(t *testing.T) *queryCell {
 	if err := os.WriteFile(fake, []byte(script), 0o755); err != nil {
 		t.Fatal(err)
 	}
-	q.l = Layout{Root: t.TempDir(), State: q.state, RealGo: fake}
+	q.l = layout.Layout{Root: t.TempDir(), State: q.state, RealGo: fake}
 	installShim(t, q.l)
 	q.rel = filepath.Join(filepath.Dir(q.cell), filepath.Base(q.cell)+"-rel")
 	q.abs = filepath.Join(t.TempDir(), "o'brien's optics")
@@ -217,7 +219,7 @@ func newQueryCell(t *testing.T) *queryCell {
 	q.write(filepath.Join(q.abs, "go.mod"), "module example.com/abs\n")
 	q.write(q.answer, "answer 1\n")
 	q.inputs = []string{filepath.Join(q.cell, "go.mod"), filepath.Join(q.cell, "go.sum"), filepath.Join(q.rel, "go.mod"), filepath.Join(q.abs, "go.mod"), fake}
-	q.env = Environ(map[string]string{"GONB_TMP_DIR": q.cell, "GOFLAGS": "", "GOWORK": "", "GOENV": q.goenv})
+	q.env = layout.Environ(map[string]string{"GONB_TMP_DIR": q.cell, "GOFLAGS": "", "GOWORK": "", "GOENV": q.goenv})
 	q.settle()
 	return q
 }
@@ -282,7 +284,7 @@ func exists(path string) bool {
 func (q *queryCell) run(env []string, dir string, args ...string) (stdout, stderr string, status int, ran bool) {
 	q.t.Helper()
 	before, _ := os.ReadFile(q.calls)
-	cmd := exec.Command(q.l.shimPath(), args...)
+	cmd := exec.Command(shimPath(q.l), args...)
 	cmd.Dir = dir
 	cmd.Env = env
 	var o, e bytes.Buffer
@@ -463,7 +465,7 @@ func TestShimAnswersMatchGo(t *testing.T) {
 				t.Fatalf("go %q: %v", args, err)
 			}
 			for i := range 2 {
-				cmd := exec.Command(l.shimPath(), args...)
+				cmd := exec.Command(shimPath(l), args...)
 				cmd.Dir, cmd.Env = cell, env
 				got, err := cmd.Output()
 				if err != nil || !bytes.Equal(got, want) {

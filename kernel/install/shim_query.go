@@ -1,4 +1,4 @@
-package setup
+package install
 
 // shimQueryDir is the directory, inside gonb's cell module, where the go
 // wrapper keeps the answers of module queries (see [shimQueryFuncs]). It
