@@ -129,6 +129,10 @@ type KnifeScan struct {
 	// uncovers the beam) or fall (it covers it), and may be slightly
 	// negative after a background subtraction.
 	Powers []float64
+	// PowerUnit names the unit of Powers ("mW", "V", "counts"), as a file
+	// gave it (see [ReadKnifeScan]); it is shown, never converted, and
+	// may be empty.
+	PowerUnit string
 	// PowerUncertainties are optional standard uncertainties of Powers,
 	// in the same unit, all positive. They weight the points (the fit
 	// minimises Σ((P − model)/σ)²); the reported uncertainties are scaled
@@ -165,11 +169,11 @@ func (d KnifeDirection) String() string {
 // KnifeEstimate is the 1/e² radius from one of the cross-check methods of
 // a knife-edge scan.
 type KnifeEstimate struct {
-	// Radius is the 1/e² intensity radius w in metres.
-	Radius units.Length
-	// RadiusUncertainty is the standard uncertainty of Radius in metres.
-	RadiusUncertainty units.Length
-	// Center is the edge position at half power, x0, in metres.
+	// Radius is the 1/e² intensity radius w in metres, with its standard
+	// uncertainty.
+	Radius Uncertain[units.Length]
+	// Center is the edge position at half power, x0, in metres (the
+	// methods state no uncertainty for it).
 	Center units.Length
 	// Points is the number of scan points the method used: those
 	// between 5 % and 95 % for the inversion; for the clip rule those from
@@ -194,22 +198,25 @@ type KnifeEstimate struct {
 // for other beams the fitted w is a 1/e² width of the erf that fits best,
 // not the second-moment width, and the warnings usually say so.
 type KnifeEdge struct {
-	// Radius is the fitted 1/e² intensity radius w in metres, and
-	// RadiusUncertainty its standard uncertainty.
-	Radius, RadiusUncertainty units.Length
+	// Radius is the fitted 1/e² intensity radius w in metres, with its
+	// standard uncertainty.
+	Radius Uncertain[units.Length]
 	// Center is the fitted edge position at half power, x0, in metres,
-	// in the frame of the scan's positions.
-	Center, CenterUncertainty units.Length
+	// in the frame of the scan's positions, with its standard
+	// uncertainty.
+	Center Uncertain[units.Length]
 	// Background is the fitted power P0 with the beam fully blocked,
-	// in the unit of the scan's powers.
-	Background, BackgroundUncertainty float64
-	// Power is the fitted power Pmax of the beam (fully uncovered minus
-	// blocked), in the unit of the scan's powers.
-	Power, PowerUncertainty float64
+	// and Power the fitted power Pmax of the beam (fully uncovered minus
+	// blocked), each with its standard uncertainty, in the unit of the
+	// scan's powers.
+	Background, Power Uncertain[float64]
 	// Direction says whether the power rises or falls with x.
 	Direction KnifeDirection
 	// Points is the number of scan points.
 	Points int
+	// PowerUnit is the scan's PowerUnit, the unit of Background, Power
+	// and ResidualRMS ("" if the scan did not name it).
+	PowerUnit string
 	// ResidualRMS is the root mean square of the fit's residuals
 	// P − model, unweighted, in the unit of the scan's powers.
 	ResidualRMS float64
@@ -315,7 +322,9 @@ func KnifeEdgeFromScan(scan KnifeScan) (KnifeEdge, error) {
 	if err != nil {
 		return KnifeEdge{}, err
 	}
-	return knifeAssemble(d, fit, inv, clip)
+	k, err := knifeAssemble(d, fit, inv, clip)
+	k.PowerUnit = scan.PowerUnit
+	return k, err
 }
 
 // knifeData is a validated scan in ascending position order, in scaled
@@ -863,17 +872,13 @@ func knifeAssemble(d *knifeData, fit knifeFit, inv knifeLine, clip knifeClipResu
 	}
 	w := math.Sqrt2 * d.lx / math.Abs(th[3])
 	k := KnifeEdge{
-		Radius:                units.Length(w),
-		RadiusUncertainty:     units.Length(w * sd(3) / math.Abs(th[3])),
-		Center:                units.Length(d.xm + d.lx*th[2]),
-		CenterUncertainty:     units.Length(d.lx * sd(2)),
-		Background:            th[0] * d.py,
-		BackgroundUncertainty: sd(0) * d.py,
-		Power:                 th[1] * d.py,
-		PowerUncertainty:      sd(1) * d.py,
-		Direction:             dir,
-		Points:                d.n,
-		ResidualRMS:           fit.rms * d.py,
+		Radius:      Uncertain[units.Length]{units.Length(w), units.Length(w * sd(3) / math.Abs(th[3]))},
+		Center:      Uncertain[units.Length]{units.Length(d.xm + d.lx*th[2]), units.Length(d.lx * sd(2))},
+		Background:  Uncertain[float64]{th[0] * d.py, sd(0) * d.py},
+		Power:       Uncertain[float64]{th[1] * d.py, sd(1) * d.py},
+		Direction:   dir,
+		Points:      d.n,
+		ResidualRMS: fit.rms * d.py,
 	}
 	if !knifeFinite(w) || w <= 0 || !(th[1] > 0) {
 		return KnifeEdge{}, knifeErr("fitted radius w", units.Length(w), "is not a beam", ErrNotConverged)
@@ -929,10 +934,9 @@ func knifeAssemble(d *knifeData, fit knifeFit, inv knifeLine, clip knifeClipResu
 		}
 	}
 	k.Inversion = KnifeEstimate{
-		Radius:            units.Length(w2),
-		RadiusUncertainty: units.Length(math.Sqrt(var2)),
-		Center:            units.Length(d.xm - d.lx*inv.a/inv.b),
-		Points:            len(inv.idx),
+		Radius: Uncertain[units.Length]{units.Length(w2), units.Length(math.Sqrt(var2))},
+		Center: units.Length(d.xm - d.lx*inv.a/inv.b),
+		Points: len(inv.idx),
 	}
 
 	// Method 3: Δ = |x90 − x10|, its uncertainty from the noise at the
@@ -972,10 +976,9 @@ func knifeAssemble(d *knifeData, fit knifeFit, inv knifeLine, clip knifeClipResu
 	var3 += dBlocked*dBlocked*sdBlocked*sdBlocked + dOpen*dOpen*sdOpen*sdOpen
 	delta := math.Abs(clip.hi.x - clip.lo.x)
 	k.Clip = KnifeEstimate{
-		Radius:            units.Length(d.lx * delta / knifeClip1090),
-		RadiusUncertainty: units.Length(d.lx * math.Sqrt(var3) / knifeClip1090),
-		Center:            units.Length(d.xm + d.lx*(clip.lo.x+clip.hi.x)/2),
-		Points:            clip.hi.hi - clip.lo.lo + 1,
+		Radius: Uncertain[units.Length]{units.Length(d.lx * delta / knifeClip1090), units.Length(d.lx * math.Sqrt(var3) / knifeClip1090)},
+		Center: units.Length(d.xm + d.lx*(clip.lo.x+clip.hi.x)/2),
+		Points: clip.hi.hi - clip.lo.lo + 1,
 	}
 	if clip.lo.x > clip.hi.x {
 		k.Clip.Points = clip.lo.hi - clip.hi.lo + 1
@@ -984,25 +987,24 @@ func knifeAssemble(d *knifeData, fit knifeFit, inv knifeLine, clip knifeClipResu
 	// Agreement and warnings.
 	est := []struct {
 		name string
-		w, s units.Length
+		w    Uncertain[units.Length]
 	}{
-		{"erf fit", k.Radius, k.RadiusUncertainty},
-		{"inversion", k.Inversion.Radius, k.Inversion.RadiusUncertainty},
-		{"10–90 % clip", k.Clip.Radius, k.Clip.RadiusUncertainty},
+		{"erf fit", k.Radius},
+		{"inversion", k.Inversion.Radius},
+		{"10–90 % clip", k.Clip.Radius},
 	}
 	worst := ""
 	lu, lsym := k.lengthUnit()
-	pm := func(w, s units.Length) string {
-		return knifePM(float64(w/lu), float64(s/lu), float64(k.Radius/lu)) + " " + lsym
-	}
+	ref := float64(k.Radius.Value / lu)
 	for a := range est {
 		for b := a + 1; b < len(est); b++ {
-			floor := knifeAgreeFloor * float64(k.Radius)
-			comb := math.Sqrt(float64(est[a].s*est[a].s+est[b].s*est[b].s) + floor*floor)
-			z := math.Abs(float64(est[a].w-est[b].w)) / comb
+			wa, wb := est[a].w, est[b].w
+			floor := knifeAgreeFloor * float64(k.Radius.Value)
+			comb := math.Sqrt(float64(wa.Sigma*wa.Sigma+wb.Sigma*wb.Sigma) + floor*floor)
+			z := math.Abs(float64(wa.Value-wb.Value)) / comb
 			if z > k.Discrepancy {
 				k.Discrepancy = z
-				worst = est[a].name + " " + pm(est[a].w, est[a].s) + " against " + est[b].name + " " + pm(est[b].w, est[b].s)
+				worst = est[a].name + " " + knifeLengthPM(wa, lu, ref) + " " + lsym + " against " + est[b].name + " " + knifeLengthPM(wb, lu, ref) + " " + lsym
 			}
 		}
 	}
@@ -1112,10 +1114,18 @@ func knifePM(v, sigma, ref float64) string {
 	return table.Fixed(v, d) + " ± " + table.Fixed(sigma, d)
 }
 
+// knifeLengthPM formats the length u as [knifePM] does, in the unit lu
+// (without its symbol), ref being in that unit. Unlike [Uncertain.String]
+// it keeps every length of a result in one unit and bounds the decimals
+// by the radius.
+func knifeLengthPM(u Uncertain[units.Length], lu units.Length, ref float64) string {
+	return knifePM(float64(u.Value/lu), float64(u.Sigma/lu), ref)
+}
+
 // lengthUnit returns the unit in which the result's lengths print: the one
 // [table.LengthUnit] picks for the fitted radius rounded to five digits.
 func (k KnifeEdge) lengthUnit() (units.Length, string) {
-	r, _ := strconv.ParseFloat(strconv.FormatFloat(float64(k.Radius), 'g', 5, 64), 64)
+	r, _ := strconv.ParseFloat(strconv.FormatFloat(float64(k.Radius.Value), 'g', 5, 64), 64)
 	return table.LengthUnit(units.Length(r))
 }
 
@@ -1126,21 +1136,28 @@ func (k KnifeEdge) lengthUnit() (units.Length, string) {
 // 1 mm, else mm), powers in the unit of the scan; each value has the
 // decimals that show its uncertainty to two digits.
 func (k KnifeEdge) Table() table.Table {
+	pu := k.PowerUnit
+	if pu == "" {
+		pu = "power unit of the scan"
+	}
 	u, sym := k.lengthUnit()
 	t := table.Table{Caption: "Knife-edge scan", Header: []string{"quantity", "value", "standard uncertainty"}}
 	add := func(q string, v, sigma, ref float64) {
 		d := knifeDecimals(sigma, ref)
 		t.Rows = append(t.Rows, []string{q, table.Fixed(v, d), table.Fixed(sigma, d)})
 	}
-	w := float64(k.Radius / u)
-	for _, e := range k.estimates() {
-		add("1/e² radius w ("+sym+"), "+e.label, float64(e.Radius/u), float64(e.RadiusUncertainty/u), w)
+	addLength := func(q string, l Uncertain[units.Length], ref float64) {
+		add(q, float64(l.Value/u), float64(l.Sigma/u), ref)
 	}
-	add("edge position x0 at half power ("+sym+"), erf fit", float64(k.Center/u), float64(k.CenterUncertainty/u), w)
-	add("background P0 (power unit of the scan), erf fit", k.Background, k.BackgroundUncertainty, k.Power)
-	add("beam power Pmax (power unit of the scan), erf fit", k.Power, k.PowerUncertainty, k.Power)
+	w := float64(k.Radius.Value / u)
+	for _, e := range k.estimates() {
+		addLength("1/e² radius w ("+sym+"), "+e.label, e.Radius, w)
+	}
+	addLength("edge position x0 at half power ("+sym+"), erf fit", k.Center, w)
+	add("background P0 ("+pu+"), erf fit", k.Background.Value, k.Background.Sigma, k.Power.Value)
+	add("beam power Pmax ("+pu+"), erf fit", k.Power.Value, k.Power.Sigma, k.Power.Value)
 	t.Rows = append(t.Rows,
-		[]string{"residual RMS of the erf fit (power unit of the scan)", table.Sig(k.ResidualRMS, 3), ""},
+		[]string{"residual RMS of the erf fit ("+pu+")", table.Sig(k.ResidualRMS, 3), ""},
 		[]string{"scan", strconv.Itoa(k.Points) + " points, the edge " + k.Direction.String() + " the beam as x increases", ""},
 		[]string{"largest difference of the three radii", table.Sig(k.Discrepancy, 2) + " σ", ""})
 	for _, msg := range k.Warnings {
@@ -1159,7 +1176,7 @@ type knifeLabelled struct {
 // estimates returns the three radii in the order fit, inversion, clip.
 func (k KnifeEdge) estimates() []knifeLabelled {
 	return []knifeLabelled{
-		{KnifeEstimate{Radius: k.Radius, RadiusUncertainty: k.RadiusUncertainty, Center: k.Center, Points: k.Points}, "erf fit", "erf fit"},
+		{KnifeEstimate{Radius: k.Radius, Center: k.Center.Value, Points: k.Points}, "erf fit", "erf fit"},
 		{k.Inversion, "inversion (Khosrofian–Garetz, " + strconv.Itoa(k.Inversion.Points) + " points in 5–95 %)", "inversion"},
 		{k.Clip, "10–90 % distance / 1.281552 (TEM₀₀ only)", "10–90 % clip, TEM₀₀ factor"},
 	}
@@ -1172,18 +1189,18 @@ func (k KnifeEdge) estimates() []knifeLabelled {
 // with one further line per warning.
 func (k KnifeEdge) String() string {
 	u, sym := k.lengthUnit()
-	w := float64(k.Radius / u)
+	w := float64(k.Radius.Value / u)
 	var b strings.Builder
 	b.WriteString("knife-edge scan, " + strconv.Itoa(k.Points) + " points, edge " + k.Direction.String() + ": w = ")
 	for i, e := range k.estimates() {
 		if i > 0 {
 			b.WriteString(", ")
 		}
-		b.WriteString(knifePM(float64(e.Radius/u), float64(e.RadiusUncertainty/u), w) + " " + sym + " (" + e.short + ")")
+		b.WriteString(knifeLengthPM(e.Radius, u, w) + " " + sym + " (" + e.short + ")")
 	}
-	b.WriteString("; x0 = " + knifePM(float64(k.Center/u), float64(k.CenterUncertainty/u), w) + " " + sym +
-		"; P0 = " + knifePM(k.Background, k.BackgroundUncertainty, k.Power) +
-		", Pmax = " + knifePM(k.Power, k.PowerUncertainty, k.Power) +
+	b.WriteString("; x0 = " + knifeLengthPM(k.Center, u, w) + " " + sym +
+		"; P0 = " + knifePM(k.Background.Value, k.Background.Sigma, k.Power.Value) +
+		", Pmax = " + knifePM(k.Power.Value, k.Power.Sigma, k.Power.Value) +
 		", residual RMS " + table.Sig(k.ResidualRMS, 2) + " (power unit of the scan); radii within " + table.Sig(k.Discrepancy, 2) + " σ")
 	for _, msg := range k.Warnings {
 		b.WriteString("\nwarning: " + msg)

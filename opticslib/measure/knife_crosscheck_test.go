@@ -102,16 +102,16 @@ func TestCrossCheckKnifeEdge(t *testing.T) {
 			t.Errorf("case %d: curve_fit ier = %d, reference did not converge", i, r.Fit.Ier)
 			continue
 		}
-		w := float64(k.Radius)
+		w := float64(k.Radius.Value)
 		for _, c := range []struct {
 			name               string
 			got, want, sd, ref float64
 			gotSD              float64
 		}{
-			{"Background", k.Background, r.Fit.P0, r.Fit.SD[0], r.Fit.Pmax, k.BackgroundUncertainty},
-			{"Power", k.Power, r.Fit.Pmax, r.Fit.SD[1], r.Fit.Pmax, k.PowerUncertainty},
-			{"Center", float64(k.Center), r.Fit.X0, r.Fit.SD[2], w, float64(k.CenterUncertainty)},
-			{"Radius", w, r.Fit.W, r.Fit.SD[3], w, float64(k.RadiusUncertainty)},
+			{"Background", k.Background.Value, r.Fit.P0, r.Fit.SD[0], r.Fit.Pmax, k.Background.Sigma},
+			{"Power", k.Power.Value, r.Fit.Pmax, r.Fit.SD[1], r.Fit.Pmax, k.Power.Sigma},
+			{"Center", float64(k.Center.Value), r.Fit.X0, r.Fit.SD[2], w, float64(k.Center.Sigma)},
+			{"Radius", w, r.Fit.W, r.Fit.SD[3], w, float64(k.Radius.Sigma)},
 		} {
 			if d := math.Abs(c.got - c.want); d > 1e-4*c.sd+1e-12*c.ref {
 				t.Errorf("case %d: %s = %.12g, want %.12g (curve_fit), diff %.2g σ", i, c.name, c.got, c.want, d/c.sd)
@@ -126,17 +126,17 @@ func TestCrossCheckKnifeEdge(t *testing.T) {
 			t.Errorf("case %d: Inversion.Points = %d, want %d", i, k.Inversion.Points, r.Inversion.Points)
 		}
 		for _, c := range [][3]float64{
-			{float64(k.Inversion.Radius), r.Inversion.W, 1e-10},
+			{float64(k.Inversion.Radius.Value), r.Inversion.W, 1e-10},
 			{float64(k.Inversion.Center), r.Inversion.X0, 1e-10},
-			{float64(k.Clip.Radius), r.Clip.W, 1e-12},
+			{float64(k.Clip.Radius.Value), r.Clip.W, 1e-12},
 			{float64(k.Clip.Center), r.Clip.X0, 1e-12},
 		} {
 			if d := math.Abs(c[0] - c[1]); d > c[2]*w {
 				t.Errorf("case %d: cross-check value %.15g, want %.15g (numpy/scipy), diff %.2g w", i, c[0], c[1], d/w)
 			}
 		}
-		maxInv = math.Max(maxInv, math.Abs(float64(k.Inversion.Radius)-r.Inversion.W)/w)
-		maxClip = math.Max(maxClip, math.Abs(float64(k.Clip.Radius)-r.Clip.W)/w)
+		maxInv = math.Max(maxInv, math.Abs(float64(k.Inversion.Radius.Value)-r.Inversion.W)/w)
+		maxClip = math.Max(maxClip, math.Abs(float64(k.Clip.Radius.Value)-r.Clip.W)/w)
 	}
 	t.Logf("%d scans against %s: fit max |Δθ| = %.2g σ, uncertainties max rel %.2g, inversion max |Δw|/w = %.2g, clip %.2g",
 		len(cases), ref.Reference, maxPull, maxSD, maxInv, maxClip)

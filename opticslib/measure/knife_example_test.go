@@ -53,11 +53,11 @@ func ExampleKnifeEdgeFromScan() {
 		fmt.Println(err)
 		return
 	}
-	fmt.Printf("erf fit:    w = %.1f ± %.1f µm\n", k.Radius.Micrometers(), k.RadiusUncertainty.Micrometers())
-	fmt.Printf("inversion:  w = %.1f ± %.1f µm (%d points)\n", k.Inversion.Radius.Micrometers(), k.Inversion.RadiusUncertainty.Micrometers(), k.Inversion.Points)
-	fmt.Printf("10–90 %%:    w = %.1f ± %.1f µm\n", k.Clip.Radius.Micrometers(), k.Clip.RadiusUncertainty.Micrometers())
+	fmt.Printf("erf fit:    w = %v\n", k.Radius)
+	fmt.Printf("inversion:  w = %v (%d points)\n", k.Inversion.Radius, k.Inversion.Points)
+	fmt.Printf("10–90 %%:    w = %v\n", k.Clip.Radius)
 	fmt.Printf("edge at %.3f mm, Pmax = %.1f mV over P0 = %.1f mV, residual RMS %.2f mV\n",
-		k.Center.Millimeters(), k.Power, k.Background, k.ResidualRMS)
+		k.Center.Value.Millimeters(), k.Power.Value, k.Background.Value, k.ResidualRMS)
 	fmt.Printf("the edge is %v the beam; radii within %.1f σ; %d warnings\n", k.Direction, k.Discrepancy, len(k.Warnings))
 	// Output:
 	// erf fit:    w = 848.2 ± 3.0 µm

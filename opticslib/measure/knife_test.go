@@ -179,10 +179,10 @@ func TestKnifeFitNoiseFree(t *testing.T) {
 			got, want float64
 			scale     float64
 		}{
-			{"Radius", float64(k.Radius), b.w, b.w},
-			{"Center", float64(k.Center), b.x0, b.w},
-			{"Background", k.Background, b.p0, b.pmax},
-			{"Power", k.Power, b.pmax, b.pmax},
+			{"Radius", float64(k.Radius.Value), b.w, b.w},
+			{"Center", float64(k.Center.Value), b.x0, b.w},
+			{"Background", k.Background.Value, b.p0, b.pmax},
+			{"Power", k.Power.Value, b.pmax, b.pmax},
 		} {
 			if math.Abs(c.got-c.want) > tol*c.scale {
 				t.Errorf("KnifeEdgeFromScan(%+v).%s = %.15g, want %.15g (rel %.2g)", b, c.name, c.got, c.want, (c.got-c.want)/c.scale)
@@ -196,12 +196,12 @@ func TestKnifeFitNoiseFree(t *testing.T) {
 			t.Errorf("KnifeEdgeFromScan(%+v): Direction %v, Points %d, want %v, %d", b, k.Direction, k.Points, wantDir, b.n)
 		}
 		// No noise: the residuals are rounding, so is the uncertainty.
-		if k.ResidualRMS > 1e-12*b.pmax || float64(k.RadiusUncertainty) > 1e-10*b.w {
-			t.Errorf("KnifeEdgeFromScan(%+v): ResidualRMS %g, RadiusUncertainty %g, want rounding", b, k.ResidualRMS, k.RadiusUncertainty)
+		if k.ResidualRMS > 1e-12*b.pmax || float64(k.Radius.Sigma) > 1e-10*b.w {
+			t.Errorf("KnifeEdgeFromScan(%+v): ResidualRMS %g, Radius.Sigma %g, want rounding", b, k.ResidualRMS, float64(k.Radius.Sigma))
 		}
 		t.Logf("w = %g m, n = %d: fit rel %.2g, inversion rel %.2g, clip rel %.2g (± %.2g), discrepancy %.2g σ",
-			b.w, b.n, float64(k.Radius)/b.w-1, float64(k.Inversion.Radius)/b.w-1, float64(k.Clip.Radius)/b.w-1,
-			float64(k.Clip.RadiusUncertainty)/b.w, k.Discrepancy)
+			b.w, b.n, float64(k.Radius.Value)/b.w-1, float64(k.Inversion.Radius.Value)/b.w-1, float64(k.Clip.Radius.Value)/b.w-1,
+			float64(k.Clip.Radius.Sigma)/b.w, k.Discrepancy)
 	}
 }
 
@@ -224,9 +224,9 @@ func TestKnifeInversionKhosrofianGaretz(t *testing.T) {
 			t.Errorf("KnifeEdgeFromScan(%+v) error: %v", b, err)
 			continue
 		}
-		rel := float64(k.Inversion.Radius)/b.w - 1
+		rel := float64(k.Inversion.Radius.Value)/b.w - 1
 		if math.Abs(rel) > tol {
-			t.Errorf("KnifeEdgeFromScan(%+v).Inversion.Radius = %.9g, want %.9g within 0.05 %% (rel %.2g)", b, float64(k.Inversion.Radius), b.w, rel)
+			t.Errorf("KnifeEdgeFromScan(%+v).Inversion.Radius = %.9g, want %.9g within 0.05 %% (rel %.2g)", b, float64(k.Inversion.Radius.Value), b.w, rel)
 		}
 		if math.Abs(float64(k.Inversion.Center)-b.x0) > tol*b.w {
 			t.Errorf("KnifeEdgeFromScan(%+v).Inversion.Center = %.9g, want %.9g", b, float64(k.Inversion.Center), b.x0)
@@ -258,11 +258,11 @@ func TestKnifeClipRule(t *testing.T) {
 			t.Errorf("KnifeEdgeFromScan(%+v) error: %v", b, err)
 			continue
 		}
-		got := float64(k.Clip.Radius)
+		got := float64(k.Clip.Radius.Value)
 		if rel := got/b.w - 1; math.Abs(rel) > test.relTol {
 			t.Errorf("KnifeEdgeFromScan(%+v).Clip.Radius = %.9g, want %.9g within rel %g", b, got, b.w, test.relTol)
 		}
-		if d, s := math.Abs(got-b.w), float64(k.Clip.RadiusUncertainty); d > 1.5*s {
+		if d, s := math.Abs(got-b.w), float64(k.Clip.Radius.Sigma); d > 1.5*s {
 			t.Errorf("KnifeEdgeFromScan(%+v).Clip: |w − w_true| = %.3g, uncertainty %.3g: the interpolation estimate is off", b, d, s)
 		}
 		if math.Abs(float64(k.Clip.Center)-b.x0) > test.relTol*b.w {
@@ -313,12 +313,12 @@ func TestKnifeDirections(t *testing.T) {
 	for _, cover := range []bool{false, true} {
 		up, down := results[[2]bool{cover, false}], results[[2]bool{cover, true}]
 		for _, c := range [][2]float64{
-			{float64(up.Radius), float64(down.Radius)},
-			{float64(up.RadiusUncertainty), float64(down.RadiusUncertainty)},
-			{float64(up.Center), float64(down.Center)},
-			{float64(up.Inversion.Radius), float64(down.Inversion.Radius)},
-			{float64(up.Clip.Radius), float64(down.Clip.Radius)},
-			{up.Power, down.Power},
+			{float64(up.Radius.Value), float64(down.Radius.Value)},
+			{float64(up.Radius.Sigma), float64(down.Radius.Sigma)},
+			{float64(up.Center.Value), float64(down.Center.Value)},
+			{float64(up.Inversion.Radius.Value), float64(down.Inversion.Radius.Value)},
+			{float64(up.Clip.Radius.Value), float64(down.Clip.Radius.Value)},
+			{up.Power.Value, down.Power.Value},
 		} {
 			if !scalar.EqualWithinRel(c[0], c[1], 1e-12) {
 				t.Errorf("cover %v: listed up %.15g, listed down %.15g: the order of the points matters", cover, c[0], c[1])
@@ -333,8 +333,8 @@ func TestKnifeDirections(t *testing.T) {
 		if err != nil {
 			t.Fatalf("KnifeEdgeFromScan(cover %v) error: %v", cover, err)
 		}
-		if !scalar.EqualWithinRel(float64(k.Radius), b.w, 1e-9) || !scalar.EqualWithinAbs(float64(k.Center), b.x0, 1e-9*b.w) {
-			t.Errorf("KnifeEdgeFromScan(cover %v) = w %.12g, x0 %.12g, want %g, %g", cover, float64(k.Radius), float64(k.Center), b.w, b.x0)
+		if !scalar.EqualWithinRel(float64(k.Radius.Value), b.w, 1e-9) || !scalar.EqualWithinAbs(float64(k.Center.Value), b.x0, 1e-9*b.w) {
+			t.Errorf("KnifeEdgeFromScan(cover %v) = w %.12g, x0 %.12g, want %g, %g", cover, float64(k.Radius.Value), float64(k.Center.Value), b.w, b.x0)
 		}
 	}
 }
@@ -361,11 +361,9 @@ func knifeStats(t *testing.T, b knifeBeam, sigma func(p float64) float64, given 
 		if err != nil {
 			t.Fatalf("KnifeEdgeFromScan(noisy %+v) error: %v", b, err)
 		}
-		for j, e := range []struct{ w, s units.Length }{
-			{k.Radius, k.RadiusUncertainty}, {k.Inversion.Radius, k.Inversion.RadiusUncertainty}, {k.Clip.Radius, k.Clip.RadiusUncertainty},
-		} {
-			pulls[j] = append(pulls[j], (float64(e.w)-b.w)/float64(e.s))
-			meanSigma[j] += float64(e.s) / float64(runs)
+		for j, e := range []measure.Uncertain[units.Length]{k.Radius, k.Inversion.Radius, k.Clip.Radius} {
+			pulls[j] = append(pulls[j], (float64(e.Value)-b.w)/float64(e.Sigma))
+			meanSigma[j] += float64(e.Sigma) / float64(runs)
 		}
 		if len(k.Warnings) > 0 {
 			warned++
@@ -493,7 +491,7 @@ func TestKnifeWarnings(t *testing.T) {
 			}
 		}
 		t.Logf("%s: fit %.4g, inversion %.4g, clip %.4g mm, discrepancy %.2g σ", test.name,
-			k.Radius.Millimeters(), k.Inversion.Radius.Millimeters(), k.Clip.Radius.Millimeters(), k.Discrepancy)
+			k.Radius.Value.Millimeters(), k.Inversion.Radius.Value.Millimeters(), k.Clip.Radius.Value.Millimeters(), k.Discrepancy)
 	}
 }
 
