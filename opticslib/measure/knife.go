@@ -1157,7 +1157,7 @@ func (k KnifeEdge) Table() table.Table {
 	add("background P0 ("+pu+"), erf fit", k.Background.Value, k.Background.Sigma, k.Power.Value)
 	add("beam power Pmax ("+pu+"), erf fit", k.Power.Value, k.Power.Sigma, k.Power.Value)
 	t.Rows = append(t.Rows,
-		[]string{"residual RMS of the erf fit ("+pu+")", table.Sig(k.ResidualRMS, 3), ""},
+		[]string{"residual RMS of the erf fit (" + pu + ")", table.Sig(k.ResidualRMS, 3), ""},
 		[]string{"scan", strconv.Itoa(k.Points) + " points, the edge " + k.Direction.String() + " the beam as x increases", ""},
 		[]string{"largest difference of the three radii", table.Sig(k.Discrepancy, 2) + " σ", ""})
 	for _, msg := range k.Warnings {

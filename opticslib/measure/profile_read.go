@@ -39,10 +39,7 @@ const frameMaxLine = 64 << 20
 // [ErrNotPhysical] for a value that is not finite or an invalid pitch.
 func ReadFrameCSV(r io.Reader, name string, pitchX, pitchY units.Length) (Frame, error) {
 	where := frameWhere(name)
-	if err := framePitchError(where, "x", pitchX); err != nil {
-		return Frame{}, err
-	}
-	if err := framePitchError(where, "y", pitchY); err != nil {
+	if err := framePitchesError(where, pitchX, pitchY); err != nil {
 		return Frame{}, err
 	}
 	f := Frame{PitchX: pitchX, PitchY: pitchY, Name: name}
@@ -159,16 +156,9 @@ const pngSignature = "\x89PNG\r\n\x1a\n"
 // transparent pixel, or more than [MaxFramePixels] pixels, and wrapping
 // [ErrNotPhysical] for an invalid pitch.
 func ReadFramePNG(r io.Reader, name string, pitchX, pitchY units.Length) (Frame, error) {
-	where := frameWhere(name)
-	if err := framePitchError(where, "x", pitchX); err != nil {
-		return Frame{}, err
-	}
-	if err := framePitchError(where, "y", pitchY); err != nil {
-		return Frame{}, err
-	}
-	data, err := io.ReadAll(r)
+	where, data, err := frameImageData(r, name, pitchX, pitchY)
 	if err != nil {
-		return Frame{}, &ParamError{Where: where, Reason: "cannot be read", Err: fmt.Errorf("%w (%w)", ErrInput, err)}
+		return Frame{}, err
 	}
 	// The IHDR chunk comes first (PNG specification §5.6, §11.2.2):
 	// length, "IHDR", width, height, bit depth, colour type.
@@ -183,20 +173,67 @@ func ReadFramePNG(r io.Reader, name string, pitchX, pitchY units.Length) (Frame,
 	if w > MaxFramePixels || h > MaxFramePixels {
 		return Frame{}, &ParamError{Where: where, Param: "size", Value: strconv.FormatUint(uint64(w), 10) + " × " + strconv.FormatUint(uint64(h), 10) + " pixels", Reason: "must have at most " + strconv.Itoa(MaxFramePixels) + " pixels", Err: ErrInput}
 	}
-	if err := frameSizeError(where, int(h), int(w)); err != nil {
+	img, err := frameDecode(where, "PNG", data, int(h), int(w), png.Decode)
+	if err != nil {
 		return Frame{}, err
 	}
-	img, err := png.Decode(bytes.NewReader(data))
+	return frameImage(img, where, depth, name, pitchX, pitchY)
+}
+
+// framePitchesError checks both pixel pitches of a frame reader's
+// arguments.
+func framePitchesError(where string, pitchX, pitchY units.Length) error {
+	if err := framePitchError(where, "x", pitchX); err != nil {
+		return err
+	}
+	return framePitchError(where, "y", pitchY)
+}
+
+// frameImageData returns the subject of the errors of the image named
+// name, checks the pixel pitch and reads the whole encoded image from r:
+// the first steps of [ReadFramePNG] and [ReadFrameTIFF].
+func frameImageData(r io.Reader, name string, pitchX, pitchY units.Length) (where string, data []byte, err error) {
+	where = frameWhere(name)
+	if err = framePitchesError(where, pitchX, pitchY); err != nil {
+		return where, nil, err
+	}
+	data, err = io.ReadAll(r)
 	if err != nil {
-		return Frame{}, &ParamError{Where: where, Reason: "cannot be decoded as PNG", Err: fmt.Errorf("%w (%w)", ErrInput, err)}
+		return where, nil, &ParamError{Where: where, Reason: "cannot be read", Err: fmt.Errorf("%w (%w)", ErrInput, err)}
+	}
+	return where, data, nil
+}
+
+// frameDecode checks the size rows × cols that the header of the encoded
+// image data gives, before any pixels are allocated, and decodes data
+// with decode; format names the file format in errors.
+func frameDecode(where, format string, data []byte, rows, cols int, decode func(io.Reader) (image.Image, error)) (image.Image, error) {
+	if err := frameSizeError(where, rows, cols); err != nil {
+		return nil, err
+	}
+	img, err := decode(bytes.NewReader(data))
+	if err != nil {
+		return nil, frameDecodeError(where, format, err)
+	}
+	return img, nil
+}
+
+// frameDecodeError reports that the decoder of format failed with err.
+func frameDecodeError(where, format string, err error) error {
+	return &ParamError{Where: where, Reason: "cannot be decoded as " + format, Err: fmt.Errorf("%w (%w)", ErrInput, err)}
+}
+
+// frameImage makes the frame of a decoded image of the given bit depth
+// (8 or 16), with FullScale 255 or 65535, the pixel pitch and the name,
+// and validates it: the last steps of [ReadFramePNG] and [ReadFrameTIFF].
+func frameImage(img image.Image, where string, depth int, name string, pitchX, pitchY units.Length) (Frame, error) {
+	f, err := frameFromImage(img, where, depth)
+	if err != nil {
+		return Frame{}, err
 	}
 	full := 255.0
 	if depth == 16 {
 		full = 65535
-	}
-	f, err := frameFromImage(img, where, depth)
-	if err != nil {
-		return Frame{}, err
 	}
 	f.PitchX, f.PitchY, f.FullScale, f.Name = pitchX, pitchY, full, name
 	return f, f.Validate()
@@ -330,16 +367,9 @@ func frameTIFFTags(data []byte) (map[uint16]uint32, bool) {
 // pixel (colour), or more than [MaxFramePixels] pixels, and wrapping
 // [ErrNotPhysical] for an invalid pitch.
 func ReadFrameTIFF(r io.Reader, name string, pitchX, pitchY units.Length) (Frame, error) {
-	where := frameWhere(name)
-	if err := framePitchError(where, "x", pitchX); err != nil {
-		return Frame{}, err
-	}
-	if err := framePitchError(where, "y", pitchY); err != nil {
-		return Frame{}, err
-	}
-	data, err := io.ReadAll(r)
+	where, data, err := frameImageData(r, name, pitchX, pitchY)
 	if err != nil {
-		return Frame{}, &ParamError{Where: where, Reason: "cannot be read", Err: fmt.Errorf("%w (%w)", ErrInput, err)}
+		return Frame{}, err
 	}
 	tags, ok := frameTIFFTags(data)
 	if !ok {
@@ -356,14 +386,11 @@ func ReadFrameTIFF(r io.Reader, name string, pitchX, pitchY units.Length) (Frame
 	}
 	cfg, err := tiff.DecodeConfig(bytes.NewReader(data))
 	if err != nil {
-		return Frame{}, &ParamError{Where: where, Reason: "cannot be decoded as TIFF", Err: fmt.Errorf("%w (%w)", ErrInput, err)}
+		return Frame{}, frameDecodeError(where, "TIFF", err)
 	}
-	if err := frameSizeError(where, cfg.Height, cfg.Width); err != nil {
-		return Frame{}, err
-	}
-	img, err := tiff.Decode(bytes.NewReader(data))
+	img, err := frameDecode(where, "TIFF", data, cfg.Height, cfg.Width, tiff.Decode)
 	if err != nil {
-		return Frame{}, &ParamError{Where: where, Reason: "cannot be decoded as TIFF", Err: fmt.Errorf("%w (%w)", ErrInput, err)}
+		return Frame{}, err
 	}
 	depth := int(tags[tiffBitsPerSample])
 	switch img.(type) {
@@ -371,16 +398,7 @@ func ReadFrameTIFF(r io.Reader, name string, pitchX, pitchY units.Length) (Frame
 	default:
 		return Frame{}, &ParamError{Where: where, Param: "photometric interpretation", Value: int(tags[tiffPhotometric]), Reason: "must be 0 or 1 (grayscale)", Err: ErrInput}
 	}
-	f, err := frameFromImage(img, where, depth)
-	if err != nil {
-		return Frame{}, err
-	}
-	full := 255.0
-	if depth == 16 {
-		full = 65535
-	}
-	f.PitchX, f.PitchY, f.FullScale, f.Name = pitchX, pitchY, full, name
-	return f, f.Validate()
+	return frameImage(img, where, depth, name, pitchX, pitchY)
 }
 
 // ReadFrameFile reads a frame from the file at path by its extension
