@@ -185,6 +185,19 @@ func TestBrowserRunAll(t *testing.T) {
 			t.Fatalf("copying %s: %v", nb, err)
 		}
 	}
+	// The notebooks' data files (data/ beside them), which cells open by
+	// relative path.
+	copied := map[string]bool{}
+	for _, nb := range notebooks {
+		data := filepath.Join(filepath.Dir(nb), "data")
+		if st, err := os.Stat(data); err != nil || !st.IsDir() || copied[data] {
+			continue
+		}
+		copied[data] = true
+		if err := os.CopyFS(filepath.Join(served, "data"), os.DirFS(data)); err != nil {
+			t.Fatalf("copying %s: %v", data, err)
+		}
+	}
 
 	start := time.Now()
 	srv := r.startServer(ctx, l, served, work, artefacts)
