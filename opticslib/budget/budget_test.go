@@ -94,8 +94,8 @@ func TestUncoatedWindow(t *testing.T) {
 // light fully at both faces (the inner angle is Brewster's angle for
 // n → 1 as well; R39: Rp = 0 to 1e-15 at atan(1.5) = 56.30993°). s light
 // loses Rs = ((n² − 1)/(n² + 1))² per face, the closed form of
-// r_s = −sin(θi − θt)/sin(θi + θt) with θi + θt = 90° (Hecht, Optics, 5th
-// ed., §4.6.2 [from memory]): for n = 1.5, Rs = 0.147929 and the plate
+// r_s = −sin(θi − θt)/sin(θi + θt) with θi + θt = 90° (Born & Wolf,
+// Principles of Optics, §1.5.2 [from memory]): for n = 1.5, Rs = 0.147929 and the plate
 // passes (1 − Rs)². Unpolarized light is the incoherent sum of half s and
 // half p (Stokes; Born & Wolf §10.8.3 [from memory]): (1 + (1 − Rs)²)/2,
 // not the square of the s/p average. Tolerance 1e-12 relative (rounding

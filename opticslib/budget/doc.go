@@ -45,7 +45,7 @@
 // light: the package then follows the Stokes vector with the Mueller
 // matrices of the same Jones matrices ([polar.JonesMatrix.Mueller]). At
 // the first uncoated surface that is exactly the s/p average
-// T = (Ts + Tp)/2 (Hecht, Optics, 5th ed., §4.6.3 [from memory]); after a
+// T = (Ts + Tp)/2 (M. Born & E. Wolf, Principles of Optics, §1.5 [from memory]); after a
 // tilted surface the light is partially polarized and the next surfaces
 // act on that state, not on the average again.
 //

@@ -29,8 +29,8 @@
 // off the vectors after any chain.
 //
 // Handedness is named as by M. Born & E. Wolf (Principles of Optics,
-// §1.4.2 [from memory]) and E. Hecht (Optics, 5th ed., 2017, §8.1 [from
-// memory]): light is right-handed when the field turns clockwise as seen
+// §1.4.2 [from memory]) and D. H. Goldstein, Polarized Light, 3rd ed., 2011 [from
+// memory]: light is right-handed when the field turns clockwise as seen
 // facing the source. With the time convention above right-handed circular
 // light is (1, i)/√2 and has S3 > 0, as in E. Collett, Field Guide to
 // Polarization, SPIE 2005 [from memory]. A quarter-wave plate with its

@@ -15,7 +15,7 @@ import (
 //
 // Light along the axis passes unchanged, light across it is blocked, so
 // linear light at ψ keeps the fraction cos²(ψ − θ) of its power (Malus's
-// law; E. Hecht, Optics, 5th ed., 2017, §8.2 [from memory]). It returns a
+// law; D. H. Goldstein, Polarized Light, 3rd ed., 2011 [from memory]). It returns a
 // [*ParamError] for a non-finite angle.
 func Polarizer(axis units.Angle) (JonesMatrix, error) {
 	if err := checkAngle("Polarizer", "transmission axis θ", axis); err != nil {
@@ -100,7 +100,7 @@ func retarder(theta, gamma float64) JonesMatrix {
 //
 // It mirrors the polarization ellipse about the fast axis: linear light at
 // ψ leaves at 2θ − ψ, so light along x is turned by 2θ, and the
-// handedness is reversed (E. Hecht, Optics, 5th ed., 2017, §8.7 [from
+// handedness is reversed (D. H. Goldstein, Polarized Light, 3rd ed., 2011 [from
 // memory]). It returns a [*ParamError] for a non-finite angle.
 func HalfWave(fastAxis units.Angle) (JonesMatrix, error) {
 	if err := checkAngle("HalfWave", "fast axis θ", fastAxis); err != nil {
@@ -131,7 +131,7 @@ func QuarterWave(fastAxis units.Angle) (JonesMatrix, error) {
 //	       ⎣sin ρ   cos ρ⎦
 //
 // A dextrorotatory medium turns clockwise as seen facing the source
-// (E. Hecht, Optics, 5th ed., 2017, §8.10 [from memory]), which is ρ < 0
+// (D. H. Goldstein, Polarized Light, 3rd ed., 2011 [from memory]), which is ρ < 0
 // here. Optical activity is reciprocal: on the way back, in the return
 // frame of [JonesMatrix.Reverse], the matrix is again R(ρ), so a double
 // pass through the rotator and a mirror undoes the rotation. It returns a

@@ -4,8 +4,8 @@ package polar_test
 // against an outside reference, and which values are this library's own:
 //
 //   - ExampleHalfWaveForSplit: the plate angle θ = (ψ + ½ acos(2f − 1))/2
-//     is the closed form of the half-wave rule (Hecht, Optics, 5th ed.,
-//     §8.7 [from memory]) with Malus's law: for f = 0.25 from light at 90°,
+//     is the closed form of the half-wave rule (Goldstein, Polarized
+//     Light, 3rd ed. [from memory]) with Malus's law: for f = 0.25 from light at 90°,
 //     ψ' = ½ acos(−0.5) = 60° and θ = (90° + 60°)/2 = 75° ≡ −15° (mod 90°).
 //     The port powers follow from cos²60° = 0.25 and sin²60° = 0.75 with
 //     the leaks 1/ER of the splitter's extinction ratios: 400 mW ×

@@ -16,8 +16,8 @@ import (
 //
 // s is the component normal to the plane of incidence, p the one in it.
 // The amplitude coefficients follow the field directions of M. Born &
-// E. Wolf (Principles of Optics, §1.5.2 [from memory]) and E. Hecht
-// (Optics, 5th ed., 2017, §4.6.2 [from memory]), with
+// E. Wolf (Principles of Optics, §1.5.2 [from memory]) and E. Collett
+// (Field Guide to Polarization, SPIE 2005 [from memory]), with
 // θt the angle of refraction (n1 sin θi = n2 sin θt):
 //
 //	r_s = (n1 cos θi − n2 cos θt)/(n1 cos θi + n2 cos θt)
@@ -142,7 +142,7 @@ func (f Fresnel) Reflectance() (s, p float64) {
 //
 // (dimensionless, in [0, 1]; 0 under total internal reflection), so that
 // Rs + Ts = Rp + Tp = 1 up to rounding (energy conservation at a lossless
-// interface; Hecht, Optics, 5th ed., §4.6.3 [from memory]). They are
+// interface; Born & Wolf, §1.5.3 [from memory]). They are
 // evaluated as 4 n1 cos θi n2 cos θt/|n1 cos θi + n2 cos θt|² (s) and
 // 4 n1 cos θi n2 cos θt/|n2 cos θi + n1 cos θt|² (p), the same values
 // without the ratio that overflows at grazing incidence.

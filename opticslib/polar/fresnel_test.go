@@ -32,7 +32,7 @@ func TestFresnelR39(t *testing.T) {
 			t.Errorf("Interface(1, 1.5, 0°): %s = %.17g, want %.17g (R39)", test.name, test.got, test.want)
 		}
 	}
-	// Sign convention of the package (Born & Wolf, Hecht): r_p = −r_s at
+	// Sign convention of the package (Born & Wolf): r_p = −r_s at
 	// normal incidence, r_s = (n1 − n2)/(n1 + n2) = −0.2.
 	if !scalar.EqualWithinAbs(real(f.RS), -0.2, 1e-16) || !scalar.EqualWithinAbs(real(f.RP), 0.2, 1e-16) {
 		t.Errorf("Interface(1, 1.5, 0°): r_s = %v, r_p = %v, want −0.2, +0.2", f.RS, f.RP)
@@ -87,7 +87,7 @@ func TestBrewster(t *testing.T) {
 
 func TestFresnelEnergy(t *testing.T) {
 	// R + T = 1 for s and p at a lossless interface (energy conservation;
-	// Hecht, Optics, 5th ed., §4.6.3 [from memory]) with the factor
+	// Born & Wolf, Principles of Optics, §1.5.3 [from memory]) with the factor
 	// n2 cos θt/(n1 cos θi) in T. An identity: abs 1e-14 (a few roundings
 	// of terms ≤ 4). Also the power-normalised Jones matrices: the
 	// reflected plus transmitted power of any input equals its power.

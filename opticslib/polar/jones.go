@@ -66,8 +66,8 @@ func (v Jones) String() string {
 
 // Handedness is the sense of rotation of the field of elliptical or
 // circular light. The package names it as M. Born & E. Wolf (Principles of
-// Optics, §1.4.2 [from memory]) and E. Hecht (Optics, 5th ed., 2017, §8.1
-// [from memory]) do: light is right-handed when, to an observer looking
+// Optics, §1.4.2 [from memory]) and D. H. Goldstein, Polarized Light, 3rd ed., 2011
+// [from memory] do: light is right-handed when, to an observer looking
 // into the oncoming beam (towards the source), the field vector turns
 // clockwise. Right-handed light has S3 > 0 and the Jones vector (1, i)/√2
 // with the package's time convention e^{iωt}, as in E. Collett, Field

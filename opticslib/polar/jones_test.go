@@ -54,7 +54,7 @@ func TestMalusLaw(t *testing.T) {
 	vec := mustOf[polar.Jones](t)
 	mat := mustOf[polar.JonesMatrix](t)
 	// Malus's law I = I0 cos²(θ − ψ) for linear light at ψ through an ideal
-	// polarizer at θ (E. Hecht, Optics, 5th ed., 2017, §8.2 [from memory];
+	// polarizer at θ (D. H. Goldstein, Polarized Light, 3rd ed., 2011 [from memory];
 	// reference-checks R39, from Azzam & Bashara). Tolerance abs 1e-15:
 	// a few roundings of sin and cos on values ≤ 1.
 	const tol = 1e-15
@@ -80,7 +80,7 @@ func TestHalfWaveRotates(t *testing.T) {
 	mat := mustOf[polar.JonesMatrix](t)
 	// A half-wave plate at θ turns linear light along x by 2θ, and in
 	// general mirrors an azimuth ψ to 2θ − ψ (reference-checks R39, Azzam &
-	// Bashara [from memory]; Hecht, Optics, 5th ed., §8.7 [from memory]).
+	// Bashara [from memory]; Goldstein, Polarized Light [from memory]).
 	// Power is kept (a waveplate is lossless). Tolerance 1e-12 rad on the
 	// azimuth (atan2 of rounded Stokes parameters, conditioned by S0 = 1)
 	// and 1e-14 on the ellipticity and power.
@@ -281,7 +281,7 @@ func TestFaradayDoublePass(t *testing.T) {
 	vec := mustOf[polar.Jones](t)
 	mat := mustOf[polar.JonesMatrix](t)
 	// Faraday rotation is non-reciprocal, optical activity reciprocal
-	// (Hecht, Optics, 5th ed., §8.10–8.11 [from memory]):
+	// (Goldstein, Polarized Light, 3rd ed. [from memory]):
 	// - a rotator ρ, a mirror and the rotator again return the light as a
 	//   plain mirror does (the rotation undoes itself);
 	// - a Faraday rotator ρ, a mirror and the rotator again turn it by 2ρ:

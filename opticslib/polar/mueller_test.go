@@ -109,7 +109,7 @@ func TestMuellerClosedForms(t *testing.T) {
 
 func TestMuellerPartiallyPolarized(t *testing.T) {
 	// Unpolarized light through an ideal polarizer: half the power, fully
-	// polarized along the axis (Hecht, Optics, 5th ed., §8.2 [from memory]);
+	// polarized along the axis (Goldstein, Polarized Light, 3rd ed. [from memory]);
 	// through a partial polarizer of extinction ER: power (1 + 1/ER)/2 and
 	// DOP = (ER − 1)/(ER + 1) (the diattenuation of the part, from its
 	// principal transmittances 1 and 1/ER). Rounding: abs 1e-15.

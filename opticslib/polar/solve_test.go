@@ -14,7 +14,7 @@ import (
 
 func TestHalfWaveForAzimuth(t *testing.T) {
 	// Closed form θ = (ψ + ψ')/2 from the half-wave rule ψ' = 2θ − ψ
-	// (Hecht, Optics, 5th ed., §8.7 [from memory]); checked by applying the
+	// (Goldstein, Polarized Light, 3rd ed. [from memory]); checked by applying the
 	// plate: the output azimuth is the wanted one to 1e-12 rad (atan2 of
 	// rounded Stokes parameters), θ in (−45°, 45°].
 	vec := mustOf[polar.Jones](t)
@@ -102,7 +102,7 @@ func TestPlateForMaxPowerClosedForms(t *testing.T) {
 	// Where a closed form exists, the numerical search must find it:
 	// a half-wave plate before a polarizer at φ passes all of linear light
 	// at ψ when θ = (ψ + φ)/2 (mod 90°), and nothing at θ = (ψ + φ)/2 + 45°
-	// (the half-wave rule, Hecht §8.7 [from memory]); a quarter-wave plate
+	// (the half-wave rule, Goldstein [from memory]); a quarter-wave plate
 	// before a right-circular analyser passes all of linear light at
 	// θ = ψ + 45°. The power is quadratic about the optimum, so an angle
 	// error δ costs ~δ²: fractions to 1e-12, angles to 1e-5 rad
