@@ -17,7 +17,6 @@ import (
 	"os/exec"
 	"os/signal"
 	"path/filepath"
-	"regexp"
 	"slices"
 	"strconv"
 	"strings"
@@ -53,11 +52,6 @@ const (
 	// test starts, and the processes those start.
 	markerVar = "BEAMNOTE_BROWSER_TEST"
 )
-
-// errorLineRE is the "error:" line rule of run.CheckExecuted
-// (errorLineRE in kernel/run/check.go), applied here to the stdout and
-// stderr text that the page shows.
-var errorLineRE = regexp.MustCompile(`(?im)^[ \t]*error:.*$`)
 
 // pageReport is what driver.py prints.
 type pageReport struct {
@@ -369,7 +363,7 @@ func checkReport(t *testing.T, name string, rep *pageReport, wantCaustic bool, a
 			texts []string
 		}{{"stderr", c.Stderr}, {"stdout", c.Stdout}} {
 			for _, s := range stream.texts {
-				if m := errorLineRE.FindString(s); m != "" {
+				if m := nbrun.ErrorLine(s); m != "" {
 					t.Errorf("%s: shows an error line on %s: %s", where, stream.name, strings.TrimSpace(m))
 				}
 			}

@@ -18,7 +18,7 @@ import (
 	"io/fs"
 	"os"
 	"os/exec"
-	"path/filepath"
+	"slices"
 	"strings"
 	"time"
 
@@ -101,18 +101,38 @@ func Write(path string, r target.Record) error {
 	return atomicfile.Write(path, []byte(r.String()), 0o644)
 }
 
-// Changes compares the record at path (the previous run's) with r. It
-// returns the changes and a note: "" when there was a previous record,
-// "first run: no previous record at <path>" when there was none. A
-// previous record that does not parse is an error (it is not
-// overwritten by a caller that stops on it).
-func Changes(path string, r target.Record) ([]target.Change, string, error) {
+// Keep compares r with the record at path (the previous run's) and writes
+// r there when a target line changed or there was no record, so that the
+// file changes with the design and not with the date. It returns what
+// moved and a note: "" when there was a previous record, "first run: no
+// previous record at <path>" when there was none (and nothing is written
+// for a notebook that states no target). A previous record that does not
+// parse is an error, and is left as it is.
+func Keep(path string, r target.Record) ([]target.Change, string, error) {
 	old, err := Read(path)
-	if errors.Is(err, fs.ErrNotExist) {
-		return nil, "first run: no previous record at " + filepath.Base(path), nil
-	}
-	if err != nil {
+	var changes []target.Change
+	note := ""
+	switch {
+	case errors.Is(err, fs.ErrNotExist) && len(r.Targets) == 0:
+		return nil, "", nil
+	case errors.Is(err, fs.ErrNotExist):
+		note = "first run: no previous record at " + path
+	case err != nil:
 		return nil, "", err
+	default:
+		changes = target.Compare(old, r)
+		if SameLines(old.Targets, r.Targets) {
+			return changes, "", nil
+		}
 	}
-	return target.Compare(old, r), "", nil
+	if err := Write(path, r); err != nil {
+		return changes, note, fmt.Errorf("writing the record: %w", err)
+	}
+	return changes, note, nil
+}
+
+// SameLines reports whether two lists of targets give the same record
+// lines, in order.
+func SameLines(a, b []target.Target) bool {
+	return slices.EqualFunc(a, b, func(x, y target.Target) bool { return x.RecordLine() == y.RecordLine() })
 }

@@ -43,25 +43,25 @@ func TestTargetsAndRecord(t *testing.T) {
 		t.Errorf("PathFor = %s", path)
 	}
 	rec := target.Record{Source: "relay.ipynb", Producer: "test", Targets: ts}
-	ch, note, err := Changes(path, rec)
+	ch, note, err := Keep(path, rec)
 	if err != nil || ch != nil || !strings.HasPrefix(note, "first run") {
-		t.Errorf("Changes without a record = %v, %q, %v; want a first-run note", ch, note, err)
+		t.Errorf("Keep without a record = %v, %q, %v; want a first-run note", ch, note, err)
 	}
 	if err := Write(path, rec); err != nil {
 		t.Fatal(err)
 	}
 	moved := rec
 	moved.Targets = []target.Target{ts[0], target.Between("working distance", 24*units.Millimeter, 20*units.Millimeter, 30*units.Millimeter)}
-	ch, note, err = Changes(path, moved)
+	ch, note, err = Keep(path, moved)
 	if err != nil || note != "" || len(ch) != 1 || ch[0].Reason != "now met" {
-		t.Errorf("Changes = %v, %q, %v; want working distance now met", ch, note, err)
+		t.Errorf("Keep = %v, %q, %v; want working distance now met", ch, note, err)
 	}
 	// A previous record that does not parse is an error, and stays as it is.
 	if err := os.WriteFile(path, []byte("garbage line\n"), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	if _, _, err := Changes(path, rec); err == nil || !strings.Contains(err.Error(), "relay.targets.txt") {
-		t.Errorf("Changes with a corrupt record: error = %v, want one naming the file", err)
+	if _, _, err := Keep(path, rec); err == nil || !strings.Contains(err.Error(), "relay.targets.txt") {
+		t.Errorf("Keep with a corrupt record: error = %v, want one naming the file", err)
 	}
 }
 

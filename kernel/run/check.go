@@ -43,6 +43,11 @@ var exitRE = regexp.MustCompile(`(?m)^(exit status [1-9]\d*|signal: .*)$`)
 // status 1.
 var errorLineRE = regexp.MustCompile(`(?im)^[ \t]*error:.*$`)
 
+// ErrorLine returns the first line of s in which a cell says it failed (a
+// line starting with "error:", any case, after blanks), or "": the rule
+// [CheckExecuted] applies to a cell's streams.
+func ErrorLine(s string) string { return errorLineRE.FindString(s) }
+
 // cellLineRE matches gonb's mark of a cell line in a stack trace on stderr,
 // "[[ Cell [1] Line 3 ]]", once ANSI escapes are removed.
 var cellLineRE = regexp.MustCompile(`\[\[ (Cell (\[\d+\] )?Line \d+) \]\]`)

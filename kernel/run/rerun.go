@@ -6,7 +6,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"io/fs"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -232,33 +231,15 @@ func (r *rerun) notebook(path, name string) record.Result {
 	return res
 }
 
-// record compares res's targets with the record beside the notebook and
-// writes the new record when a line changed or there was none.
+// record keeps res's targets in the record beside the notebook (see
+// record.Keep) and notes what moved.
 func (r *rerun) record(path string, res *record.Result) {
-	file := record.PathFor(path)
 	rec := target.Record{Source: filepath.Base(path), Producer: r.producer, Targets: res.Targets}
-	old, err := record.Read(file)
-	switch {
-	case errors.Is(err, fs.ErrNotExist) && len(res.Targets) == 0:
-		return // no targets, no record
-	case errors.Is(err, fs.ErrNotExist):
-		res.Note = "first run: no previous record at " + file
-	case err != nil:
-		res.Problems = append(res.Problems, "previous record unreadable, left as it is: "+err.Error())
-		return
-	default:
-		res.Changes = target.Compare(old, rec)
-		if sameLines(old.Targets, rec.Targets) {
-			return
-		}
+	changes, note, err := record.Keep(record.PathFor(path), rec)
+	res.Changes, res.Note = changes, note
+	if err != nil {
+		res.Problems = append(res.Problems, "record beside the notebook left as it was: "+err.Error())
 	}
-	if err := record.Write(file, rec); err != nil {
-		res.Problems = append(res.Problems, "writing the record: "+err.Error())
-	}
-}
-
-func sameLines(a, b []target.Target) bool {
-	return slices.EqualFunc(a, b, func(x, y target.Target) bool { return x.RecordLine() == y.RecordLine() })
 }
 
 // execute runs the notebook at path with nbconvert into dir and returns
@@ -383,7 +364,7 @@ func (r *rerun) again(path string, src ipynb.Notebook, tmp string, first ipynb.N
 	var diffs []string
 	t1, _ := record.Targets(first)
 	t2, _ := record.Targets(second)
-	if !sameLines(t1, t2) {
+	if !record.SameLines(t1, t2) {
 		diffs = append(diffs, fmt.Sprintf("not deterministic: the recorded targets differ between two runs (%s)", firstDifference(t1, t2)))
 	}
 	f1, f2 := figures(first), figures(second)

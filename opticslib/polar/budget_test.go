@@ -12,7 +12,8 @@ import (
 
 func TestTraceBudget(t *testing.T) {
 	// The chain x light → polarizer 45° → quarter-wave 0° → polarizer 90°:
-	// Malus gives 1/2 after the polarizer; the quarter-wave plate with its
+	// Malus's law (Goldstein, Polarized Light, 3rd ed. [from memory]) gives
+	// 1/2 after the polarizer; the quarter-wave plate with its
 	// fast axis along x, 45° below the light's azimuth, makes it circular
 	// without loss, left-handed (the fast x component leads: (1, −i)/√2 up
 	// to phase; QuarterWave's rule θ = ψ − 45° for left); the last
@@ -62,7 +63,8 @@ func TestTraceBudget(t *testing.T) {
 
 func TestTraceHalfWavePBS(t *testing.T) {
 	// A half-wave plate at θ before an ideal PBS on light along x sends
-	// cos²2θ to p and sin²2θ to s (the half-wave rule and Malus's law);
+	// cos²2θ to p and sin²2θ to s (the half-wave rule and Malus's law;
+	// Goldstein, Polarized Light [from memory]);
 	// the two ports add to the input (energy conservation). Rel 1e-14.
 	vec := mustOf[polar.Jones](t)
 	mat := mustOf[polar.JonesMatrix](t)
