@@ -387,3 +387,31 @@ func TestSpectrum(t *testing.T) {
 		t.Errorf("Spectrum(%d) error = nil", cavity.MaxSpectrumOrder+1)
 	}
 }
+
+func TestSpectrumNearest(t *testing.T) {
+	// Confocal: every even order falls on TEM₀₀ (R23), so the nearest
+	// transverse mode is of order 2 at distance 0; the odd orders sit half
+	// an FSR away.
+	s, err := twoMirror(t, concave(1, 0), concave(1, 0), 1).Spectrum(3)
+	if err != nil {
+		t.Fatal(err)
+	}
+	l, d, ok := s.Nearest()
+	if !ok || l.M+l.N != 2 || d > 1e-9*s.FSR {
+		t.Errorf("confocal Nearest = TEM%d%d at %g Hz (ok %v), want order 2 at 0", l.M, l.N, d, ok)
+	}
+	s1, err := twoMirror(t, concave(1, 0), concave(1, 0), 1).Spectrum(1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, d, _ := s1.Nearest(); !scalar.EqualWithinRel(d, s1.FSR/2, 1e-12) {
+		t.Errorf("confocal order ≤ 1: nearest distance %g, want FSR/2 = %g", d, s1.FSR/2)
+	}
+	s0, err := twoMirror(t, concave(1, 0), concave(1, 0), 1).Spectrum(0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, _, ok := s0.Nearest(); ok {
+		t.Errorf("order 0: Nearest ok = true, want false")
+	}
+}

@@ -321,3 +321,26 @@ func (c Cavity) Spectrum(order int) (Spectrum, error) {
 	}
 	return s, nil
 }
+
+// Nearest returns the transverse mode (m + n ≥ 1) of s that lies closest
+// to TEM₀₀ of some longitudinal order, and its distance from it in Hz,
+// taken round the FSR: min(Within, FSR − Within). This is the figure of
+// merit of a reference or filter cavity's geometry: a mode closer than a
+// few linewidths is excited by any residual mismatch or misalignment and
+// shows beside the fundamental resonance (common practice, no single
+// source). ok is false when s lists no transverse mode (Order 0).
+func (s Spectrum) Nearest() (l Line, distance float64, ok bool) {
+	distance = math.Inf(1)
+	for _, c := range s.Lines {
+		if c.M+c.N == 0 {
+			continue
+		}
+		if d := math.Min(c.Within, s.FSR-c.Within); d < distance {
+			l, distance, ok = c, d, true
+		}
+	}
+	if !ok {
+		return Line{}, 0, false
+	}
+	return l, distance, true
+}
