@@ -2,6 +2,7 @@ package optplot
 
 import (
 	"errors"
+	"image/color"
 	"math"
 	"strconv"
 
@@ -243,11 +244,15 @@ func IrradianceBudget(b budget.Budget, opts ...Option) (Figure, error) {
 }
 
 // budgetMarks draws a dotted vertical line at each element of a budget
-// figure and its label along the top of the data area; a label that would
-// overlap one drawn before goes down a row.
+// figure (or each mode of a [CavityTransmission] figure) and its label
+// along the top of the data area; a label that would overlap one drawn
+// before goes down a row.
 type budgetMarks struct {
-	z      []float64 // mm
+	z      []float64 // mm (plot units)
 	labels []string
+	// colors, when not nil, holds a colour per mark for its line and
+	// label; a nil entry keeps the default.
+	colors []color.Color
 	scene  *scene
 }
 
@@ -266,7 +271,12 @@ func (m *budgetMarks) Plot(c draw.Canvas, plt *plot.Plot) {
 		if !c.ContainsX(x) {
 			continue
 		}
-		c.StrokeLine2(guide, x, c.Min.Y, x, c.Max.Y)
+		g, ls := guide, lbl
+		if i < len(m.colors) && m.colors[i] != nil {
+			g.Color, ls.Color = m.colors[i], m.colors[i]
+			g.Width = vg.Points(0.9)
+		}
+		c.StrokeLine2(g, x, c.Min.Y, x, c.Max.Y)
 		l := m.labels[i]
 		if l == "" {
 			continue
@@ -283,7 +293,7 @@ func (m *budgetMarks) Plot(c draw.Canvas, plt *plot.Plot) {
 				}
 			}
 		}
-		c.FillText(lbl, vg.Point{X: lx, Y: y}, l)
+		c.FillText(ls, vg.Point{X: lx, Y: y}, l)
 		done = append(done, placed{left: lx - w/2, right: lx + w/2, y: y})
 		m.scene.take(vg.Rectangle{Min: vg.Point{X: lx - w/2, Y: y - lineH}, Max: vg.Point{X: lx + w/2, Y: y}})
 	}

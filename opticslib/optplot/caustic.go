@@ -25,7 +25,10 @@ const (
 	YLabel = "beam radius ±w (mm)"
 )
 
-// Option configures [Caustic] and [AlongZ]. Options are applied in order;
+// Option configures the figure functions that take options ([Caustic],
+// [AlongZ], [PowerBudget], [Stability], [CavityTransmission],
+// [PolarizationEllipse], [CouplingMisalignment], …); each names the
+// options it uses, and ignores the others. Options are applied in order;
 // the first invalid value makes the figure function return a
 // [*ParamError] wrapping [ErrOption].
 type Option func(*config)
@@ -42,7 +45,20 @@ type config struct {
 	zoom                 bool
 	label                string
 	also                 []overlay
-	err                  error
+	// edgeWaists notes waists at the ends of the range shown too
+	// ([CavityCaustic]: the waist on a flat end mirror).
+	edgeWaists bool
+	// Cavity, polarization and coupling figures (cavityplot.go,
+	// polarplot.go, coupleplot.go).
+	hasDetuning       bool
+	d0, d1            float64 // Hz, the detuning range
+	fsrUnits, linearT bool
+	order             int
+	orderSet          bool
+	multiples         bool
+	multiplesSet      bool
+	tolerances        []float64
+	err               error
 }
 
 // overlay is a caustic drawn over the main one ([Also]).
@@ -518,7 +534,7 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (Figure, error
 	}
 
 	if cfg.waists {
-		notes := newWaistNotes(c, astig, lo, hi)
+		notes := newWaistNotes(c, astig, lo, hi, cfg.edgeWaists)
 		notes.scene = sc
 		if len(notes.notes) > 0 {
 			p.Add(notes)
@@ -651,8 +667,10 @@ func (wn *waistNotes) Thumbnail(c *draw.Canvas) {
 }
 
 // newWaistNotes returns the notes of the waists of c inside (zmin, zmax)
-// mm; positions print with one decimal, more when the range is short.
-func newWaistNotes(c beam.Caustic, astig bool, zmin, zmax float64) *waistNotes {
+// mm, or inside [zmin, zmax] with edges (a cavity's waist on a flat end
+// mirror); positions print with one decimal, more when the range is
+// short.
+func newWaistNotes(c beam.Caustic, astig bool, zmin, zmax float64, edges bool) *waistNotes {
 	wn := &waistNotes{style: text.Style{Color: labelColor, XAlign: draw.XCenter, YAlign: draw.YBottom, Handler: plot.DefaultTextHandler}}
 	dec := max(1, min(4, 2-int(math.Floor(math.Log10(zmax-zmin)))))
 	start := c.Z[0].Millimeters()
@@ -660,8 +678,15 @@ func newWaistNotes(c beam.Caustic, astig bool, zmin, zmax float64) *waistNotes {
 		for _, f := range fs {
 			z := f.Z.Millimeters()
 			// The input waist at the very start of the path is the
-			// source; it is described elsewhere and would clip.
-			if z <= start+1e-9*(zmax-zmin) || z <= zmin || z >= zmax {
+			// source; it is described elsewhere and would clip. A
+			// cavity's mode has no source: its waists at the ends of
+			// the range are kept.
+			tol := 1e-9 * (zmax - zmin)
+			if edges {
+				if z < zmin-tol || z > zmax+tol {
+					continue
+				}
+			} else if z <= start+tol || z <= zmin || z >= zmax {
 				continue
 			}
 			// A waist just behind a lens placed at a waist repeats the

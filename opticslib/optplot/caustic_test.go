@@ -126,26 +126,33 @@ func TestGoldenSVG(t *testing.T) {
 		{"caustic_also.svg", alsoGolden},
 		{"alongz_irradiance.svg", irradianceGolden},
 	} {
-		a := test.render(t)
-		b := test.render(t)
-		if !bytes.Equal(a, b) {
-			t.Errorf("%s: two renderings differ (%d and %d bytes)", test.name, len(a), len(b))
-			continue
+		checkGolden(t, test.name, test.render)
+	}
+}
+
+// checkGolden renders twice, wants identical bytes, and compares them
+// with the golden file testdata/name (rewritten with -update).
+func checkGolden(t *testing.T, name string, render func(testing.TB) []byte) {
+	t.Helper()
+	a := render(t)
+	b := render(t)
+	if !bytes.Equal(a, b) {
+		t.Errorf("%s: two renderings differ (%d and %d bytes)", name, len(a), len(b))
+		return
+	}
+	golden := filepath.Join("testdata", name)
+	if *update {
+		if err := os.WriteFile(golden, a, 0o644); err != nil {
+			t.Fatalf("writing golden file: %v", err)
 		}
-		golden := filepath.Join("testdata", test.name)
-		if *update {
-			if err := os.WriteFile(golden, a, 0o644); err != nil {
-				t.Fatalf("writing golden file: %v", err)
-			}
-		}
-		want, err := os.ReadFile(golden)
-		if err != nil {
-			t.Errorf("reading golden file (run go test -update): %v", err)
-			continue
-		}
-		if !bytes.Equal(a, want) {
-			t.Errorf("SVG differs from %s (%d vs %d bytes); inspect and run go test -update if intended", golden, len(a), len(want))
-		}
+	}
+	want, err := os.ReadFile(golden)
+	if err != nil {
+		t.Errorf("reading golden file (run go test -update): %v", err)
+		return
+	}
+	if !bytes.Equal(a, want) {
+		t.Errorf("SVG differs from %s (%d vs %d bytes); inspect and run go test -update if intended", golden, len(a), len(want))
 	}
 }
 

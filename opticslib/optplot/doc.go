@@ -17,6 +17,17 @@
 //     [WavefrontCurvature], [Ellipticity], [IrradianceFor], [GouyPhase]).
 //   - [Lines]: a line figure of [Series], for what-if sweeps.
 //   - [Layout]: a to-scale drawing of the system with ray fans.
+//   - [PowerBudget] and [IrradianceBudget]: the power and the peak
+//     irradiance along a bench path.
+//   - [Stability]: a cavity's stability diagram in the g1–g2 plane
+//     (a ring as its equivalent symmetric two-mirror cavity).
+//   - [CavityTransmission]: the Airy resonance against detuning with the
+//     transverse-mode frequencies; [CavityCaustic]: the eigenmode around
+//     the round trip.
+//   - [PolarizationEllipse] and [PolarizationBudget]: polarization
+//     ellipses with their sense of rotation, overlaid or one panel each.
+//   - [CouplingMisalignment]: coupling efficiency against offset and tilt
+//     with the alignment tolerances marked.
 //
 // # Units
 //
@@ -58,6 +69,20 @@
 // the aperture stop and pupils are labelled. Ray fans from each field point
 // ([FanLines]) share one colour per field point, with a small key.
 //
+// The cavity, polarization and coupling figures share this look. The
+// stability diagram shades the stable region 0 < g1·g2 < 1 in the pale
+// teal of the beam band, draws its hyperbola boundary in teal, the axes
+// in grey and the symmetric cavities dotted, and marks the design as a
+// teal dot (the sagittal plane in brick when it differs). The
+// transmission figure draws the Airy curve in teal and each transverse
+// mode as a dotted grey line labelled along the top, ochre when it lies
+// within 2 % of an FSR of TEM00 and vermilion when within a linewidth.
+// Polarization ellipses are drawn in a square field plane with a dotted
+// unit circle and filled arrowheads for the sense of rotation, so that
+// a circle stays a circle whatever the figure's size. The coupling
+// figure is two panels side by side, each with its own axes and key; the
+// tolerances are dotted drops from the level line to the axis.
+//
 // # Determinism and globals
 //
 // Rendering the same input twice gives byte-identical SVG: the package
@@ -72,8 +97,11 @@
 // Errors are [*ParamError] values in the library's one format ("optplot:
 // Zoom: half width = -1 mm: must be positive and finite"), wrapping a
 // sentinel ([ErrOption], [ErrCaustic], [ErrSeries], [ErrLayout],
-// [ErrFanLines], [ErrFigure]) for errors.Is. Nothing panics on user data,
-// and arguments are not modified.
+// [ErrFanLines], [ErrFigure], [ErrBudget], [ErrCavity],
+// [ErrPolarization], [ErrCoupling]) for errors.Is; the cavity figures'
+// errors wrap the cavity package's error too (errors.Is(err,
+// cavity.ErrUnstable)). Nothing panics on user data, and arguments are
+// not modified.
 //
 // # Laser safety
 //

@@ -30,7 +30,7 @@ const PNGDPI = 200
 
 // Figure is a finished figure: the plot, the size it is drawn at and a
 // caption. Every figure function of the package ([Caustic], [AlongZ],
-// [Lines], [Layout]) returns one; the notebook layer renders it with
+// [Lines], [Layout], [Stability], [PolarizationEllipse], …) returns one; the notebook layer renders it with
 // [Figure.SVG] and shows [Figure.String] where no image can be shown.
 //
 // A Figure made by hand, Figure{Plot: p}, is valid too: a zero Width or
@@ -56,8 +56,9 @@ type Figure struct {
 //
 // for example "optplot: Zoom: half width = -1 mm: must be positive and
 // finite". It wraps one of the sentinels [ErrOption], [ErrCaustic],
-// [ErrSeries], [ErrLayout], [ErrFanLines] or [ErrFigure], so callers test
-// with errors.Is.
+// [ErrSeries], [ErrLayout], [ErrFanLines], [ErrFigure], [ErrBudget],
+// [ErrCavity], [ErrPolarization] or [ErrCoupling], so callers test with
+// errors.Is.
 type ParamError struct {
 	// Func names the function or option, for example "Zoom".
 	Func string
@@ -68,7 +69,9 @@ type ParamError struct {
 	Value any
 	// Reason states the requirement the value fails.
 	Reason string
-	// Err is the wrapped sentinel.
+	// Err is the wrapped sentinel; for the cavity figures it is joined
+	// (errors.Join) with the cavity package's error, so errors.Is finds
+	// both.
 	Err error
 }
 

@@ -29,16 +29,20 @@ func (s *scene) take(r vg.Rectangle) {
 }
 
 // keyEntry is one line of the key: a line sample (and a pale fill behind
-// it when fill is not nil) followed by the text.
+// it when fill is not nil, a dot on it when dot is not nil, a ring when
+// ring is set too) followed by the text.
 type keyEntry struct {
 	text string
 	line draw.LineStyle
 	fill color.Color
+	dot  color.Color
+	ring bool
 }
 
 // keyBox draws the figure's key: line entries, then note lines (text
 // only, wrapped to half the plot width). It is placed in the corner of
-// the data area where it covers the fewest labels and data points.
+// the data area (or, with middle, its centre or the middle of its
+// bottom) where it covers the fewest labels and data points.
 type keyBox struct {
 	entries []keyEntry
 	notes   []string
@@ -46,6 +50,10 @@ type keyBox struct {
 	noteColor color.Color
 	avoid     []plotter.XYs // data to keep clear, plot units
 	scene     *scene
+	// middle adds the centre of the data area and the middle of its
+	// bottom edge to the places tried after the corners (a figure whose
+	// data hug the edges, or peak in the middle).
+	middle bool
 }
 
 var _ plot.Plotter = (*keyBox)(nil)
@@ -106,6 +114,10 @@ func (k *keyBox) Plot(c draw.Canvas, plt *plot.Plot) {
 		{X: c.Max.X - inset - w, Y: c.Min.Y + inset},     // bottom right
 		{X: c.Min.X + inset, Y: c.Min.Y + inset},         // bottom left
 	}
+	if k.middle {
+		mid := (c.Min.X + c.Max.X - w) / 2
+		corners = append(corners, vg.Point{X: mid, Y: (c.Min.Y + c.Max.Y - h) / 2}, vg.Point{X: mid, Y: c.Min.Y + inset})
+	}
 	// Score each corner: area of labels covered, plus 40 pt² per data
 	// point covered; the first corner with the lowest score wins.
 	best, bestScore := 0, -1.0
@@ -141,6 +153,13 @@ func (k *keyBox) Plot(c draw.Canvas, plt *plot.Plot) {
 		}
 		if e.line.Width > 0 {
 			c.StrokeLine2(e.line, x0, mid, x0+thumb, mid)
+		}
+		if e.dot != nil {
+			var shape draw.GlyphDrawer = draw.CircleGlyph{}
+			if e.ring {
+				shape = draw.RingGlyph{}
+			}
+			c.DrawGlyph(draw.GlyphStyle{Color: e.dot, Radius: vg.Points(3), Shape: shape}, vg.Point{X: x0 + thumb/2, Y: mid})
 		}
 		c.FillText(sty, vg.Point{X: x0 + thumb + gap, Y: y}, e.text)
 		y -= lineH
