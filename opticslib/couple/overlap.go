@@ -182,8 +182,11 @@ func axisCoupling(src, dst axisBeam, k float64, d units.Length, th units.Angle) 
 		Cross:   -real(f(jd1, jd2, jt1, jt2)) / 2,
 		M2:      src.m2,
 	}
+	// η ≤ 1 by the Cauchy–Schwarz inequality; matched beams reach
+	// 1 + a few ulp in the arithmetic above, which is rounding.
+	ax.Aligned = math.Min(ax.Aligned, 1)
 	dd, tt := float64(d), float64(th)
-	ax.Efficiency = ax.Aligned * math.Exp(-(ax.Offset*dd*dd + ax.Tilt*tt*tt + ax.Cross*dd*tt))
+	ax.Efficiency = math.Min(ax.Aligned*math.Exp(-(ax.Offset*dd*dd+ax.Tilt*tt*tt+ax.Cross*dd*tt)), 1)
 	return ax
 }
 

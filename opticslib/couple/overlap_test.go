@@ -297,3 +297,24 @@ func TestOverlapErrors(t *testing.T) {
 		t.Errorf("AxialCoupling(w1 = −1) = %g, want NaN (documented)", v)
 	}
 }
+
+// TestMatchedEfficiencyAtMostOne: the overlap of a beam with itself is 1
+// (Cauchy–Schwarz; the normalised overlap of a field with itself), and the
+// result must never exceed 1 by rounding, whatever the curvature.
+func TestMatchedEfficiencyAtMostOne(t *testing.T) {
+	for _, z := range []float64{0, 1e-3, 0.0044, 0.1, 0.6, 3} {
+		for _, w0 := range []float64{2e-6, 255.8e-6, 0.52e-3, 4e-3} {
+			g, err := beam.FromWaist(beam.WaistSpec{WaistRadius: units.Length(w0), Wavelength: 1550e-9, WaistZ: units.Length(z)})
+			if err != nil {
+				t.Fatal(err)
+			}
+			c, err := couple.Overlap(g, g, couple.Misalignment{})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if c.Efficiency > 1 || c.Aligned > 1 || c.Efficiency < 1-1e-12 {
+				t.Errorf("w0 %g m, waist at %g m: self-overlap η = %.17g (aligned %.17g), want 1 and never above", w0, z, c.Efficiency, c.Aligned)
+			}
+		}
+	}
+}

@@ -150,3 +150,30 @@ func TestLaySag(t *testing.T) {
 		t.Errorf("laySag(Inf, 3) = %g, want 0", got)
 	}
 }
+
+// TestMarksLabelAPartOnce: a plate or thick lens has two surfaces; its
+// label is drawn once, over its first surface, while two separate parts
+// keep their own labels, and unlabelled lenses keep their parameter.
+func TestMarksLabelAPartOnce(t *testing.T) {
+	mm := units.Millimeter
+	sys, err := paraxial.NewBuilder().
+		Space(10*mm).Plate(2*mm, 1.5, 0).Label("W").
+		Space(10*mm).Plate(12*mm, 1.5, 0).Label("cube").
+		Space(10*mm).ThinLens(50*mm).
+		Space(10*mm).ThinLens(50*mm).
+		Space(10 * mm).Build()
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := NewMarks(sys, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var got []string
+	for _, mk := range m.Marks {
+		got = append(got, mk.Label)
+	}
+	if len(got) != 6 || got[0] != "W" || got[1] != "" || got[2] != "cube" || got[3] != "" || got[4] == "" || got[4] != got[5] {
+		t.Errorf("mark labels = %q, want [W, \"\", cube, \"\", f, f]", got)
+	}
+}

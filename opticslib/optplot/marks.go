@@ -119,8 +119,14 @@ func NewMarks(sys paraxial.System, halfHeight float64) (*Marks, error) {
 			Handler: plot.DefaultTextHandler,
 		},
 	}
+	// run is the label of the run of elements walked so far: the later
+	// surfaces of one labelled part (a plate's or a thick lens's back
+	// surface) are drawn without repeating its label.
+	run, inRun := "", false
 	for pc := range sys.Walk(0, sys.Length()) {
 		e := sys.Element(pc.Element)
+		repeat := inRun && e.Label != "" && e.Label == run
+		run, inRun = e.Label, true
 		lo, hi, limited := e.Aperture.Limits(paraxial.Tangential, e.Tilt)
 		lo, hi = lo*1e3, hi*1e3
 		if !e.IsSurface() {
@@ -133,7 +139,10 @@ func NewMarks(sys paraxial.System, halfHeight float64) (*Marks, error) {
 		if limited {
 			mk.Low, mk.High, mk.Stop = lo, hi, true
 		}
-		if mk.Label == "" {
+		switch {
+		case repeat:
+			mk.Label = ""
+		case mk.Label == "":
 			mk.Label = defaultLabel(e)
 		}
 		if !finite(mk.Z) || !finite(mk.Low) || !finite(mk.High) {
