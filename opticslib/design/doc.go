@@ -19,6 +19,21 @@
 // goal whose value cannot be computed (no waist after the system, an
 // unstable beam) makes the evaluation an error naming the goal.
 //
+// # Solvers
+//
+// [SolveOne] solves a single condition, one goal in one variable: the
+// zeros of the goal's miss from its aim, found by a scan of the bounds
+// and Brent's method ([Root]); every root is reported, in order (the
+// spacing that puts a waist at a given distance has two). [Minimize]
+// minimises the cost over several variables with gonum/optimize's
+// Nelder–Mead method through a smooth map onto the bounds, from a fixed
+// set of starts (the start point, a grid, seeded random points), and
+// returns a [Solution] with the values, the bounds that are active, the
+// targets and how the optimiser ended. Both say which goal is missed and
+// which bound is at fault when the bounds exclude every solution
+// ([ErrInfeasible]), and [ErrNotConverged] when the optimiser was cut
+// off.
+//
 // # Units
 //
 // Lengths are metres ([units.Length]), angles radians ([units.Angle]);

@@ -17,6 +17,15 @@ var (
 	ErrGoal = errors.New("design: goal not computable")
 	// ErrNotFinite: a function returned NaN or ±Inf.
 	ErrNotFinite = errors.New("design: value not finite")
+	// ErrInfeasible: no value within the bounds meets the goals: a root
+	// search ([SolveOne]) found no root inside the variable's bounds, or
+	// the minimiser ([Minimize]) converged to a point that misses goals
+	// (the bounds exclude the solution, or the goals conflict).
+	ErrInfeasible = errors.New("design: goals not met within the bounds")
+	// ErrNotConverged: the minimiser stopped before it converged (its
+	// evaluation limit, or a failure of the method) and its best point
+	// misses goals.
+	ErrNotConverged = errors.New("design: optimiser did not converge")
 )
 
 // ParamError is the error of this package: Subject names the goal or

@@ -30,10 +30,13 @@ type Goal struct {
 	check func(sys paraxial.System) (target.Target, error)
 	// scale is the residual scale in SI units (> 0).
 	scale float64
+	// spec is the goal's target for the value zero: its kind, unit and
+	// wanted range, known without measuring a system.
+	spec target.Target
 }
 
 func goal[Q target.Quantity](name string, m Measure[Q], scale float64, state func(v Q) target.Target) Goal {
-	return Goal{Name: name, Weight: 1, scale: scale, check: func(sys paraxial.System) (target.Target, error) {
+	return Goal{Name: name, Weight: 1, scale: scale, spec: state(0), check: func(sys paraxial.System) (target.Target, error) {
 		if m == nil {
 			return target.Target{}, &ParamError{Subject: "goal " + errtext.Quote(name), Reason: "has no measure (nil)"}
 		}
@@ -114,3 +117,53 @@ func (g Goal) Target(sys paraxial.System) (target.Target, error) {
 // goal's scale, signed (positive above the range, negative below, zero
 // inside). It is NaN for an invalid target or a non-finite value.
 func (g Goal) Residual(t target.Target) float64 { return t.Miss() / g.scale }
+
+// Range returns the goal's wanted range [lo, hi] in its SI unit ([Goal.Unit]):
+// want ∓ tol for a Near goal, [lo, hi] for Between, [min, +Inf] for AtLeast
+// and [−Inf, max] for AtMost. A goal not made by this package's
+// constructors gives NaN, NaN.
+func (g Goal) Range() (lo, hi float64) {
+	if g.check == nil {
+		return math.NaN(), math.NaN()
+	}
+	return g.spec.Lo, g.spec.Hi
+}
+
+// Unit returns the SI unit of the goal's values: "m" for a length, "rad"
+// for an angle, "" for a plain number.
+func (g Goal) Unit() string { return g.spec.Unit }
+
+// Kind returns the form of the goal's wanted range (near, between, at
+// least, at most).
+func (g Goal) Kind() target.Kind { return g.spec.Kind }
+
+// Wanted describes the goal's wanted range as its targets show it ("2 ±
+// 0.1 mm", "≥ 0.99"; [target.Target.Wanted]).
+func (g Goal) Wanted() string { return g.spec.Wanted() }
+
+// aim returns the value a root search for the goal aims at, in SI units:
+// the wanted value of a Near goal, the middle of a Between goal's range,
+// the limit of a one-sided goal.
+func (g Goal) aim() float64 {
+	switch g.spec.Kind {
+	case target.KindAtLeast:
+		return g.spec.Lo
+	case target.KindAtMost:
+		return g.spec.Hi
+	}
+	return g.spec.Want
+}
+
+// centred returns the residual of t measured from the aim of the goal
+// (signed, in units of the goal's scale) for a Near or Between goal, and
+// the ordinary residual ([Goal.Residual]) for a one-sided goal: zero only
+// at the centre of a two-sided range.
+func (g Goal) centred(t target.Target) float64 {
+	if t.Kind == target.KindNear || t.Kind == target.KindBetween {
+		if !t.Met() && math.IsNaN(t.Miss()) {
+			return math.NaN()
+		}
+		return (t.Value - t.Want) / g.scale
+	}
+	return g.Residual(t)
+}

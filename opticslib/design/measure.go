@@ -29,6 +29,25 @@ func WaistZ(in beam.Input) Measure[units.Length] {
 	}
 }
 
+// WaistAfter measures the position of the last waist relative to the
+// exit plane of the part labelled label, in metres: positive when the
+// waist lies after the part, negative for a virtual waist before it. For
+// a thin lens it is the lens-to-waist distance s″ of S. A. Self,
+// "Focusing of spherical Gaussian beams", Appl. Opt. 22, 658–661 (1983),
+// which moves with the lens when a spacing before it changes:
+// Near(WaistAfter(in, "L2"), f2, tol) is the collimation condition of a
+// two-lens telescope (the output waist in L2's back focal plane).
+func WaistAfter(in beam.Input, label string) Measure[units.Length] {
+	return func(sys paraxial.System) (units.Length, error) {
+		p, err := sys.Part(label)
+		if err != nil {
+			return 0, err
+		}
+		w, err := lastWaist(sys, in)
+		return w.Z - p.End, err
+	}
+}
+
 func lastWaist(sys paraxial.System, in beam.Input) (beam.Waist, error) {
 	ws, err := beam.Waists(sys, in)
 	if err != nil {

@@ -159,8 +159,8 @@ func TestMarksLabelAPartOnce(t *testing.T) {
 	sys, err := paraxial.NewBuilder().
 		Space(10*mm).Plate(2*mm, 1.5, 0).Label("W").
 		Space(10*mm).Plate(12*mm, 1.5, 0).Label("cube").
-		Space(10*mm).ThinLens(50*mm).
-		Space(10*mm).ThinLens(50*mm).
+		Space(10 * mm).ThinLens(50 * mm).
+		Space(10 * mm).ThinLens(50 * mm).
 		Space(10 * mm).Build()
 	if err != nil {
 		t.Fatal(err)

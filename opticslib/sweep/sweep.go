@@ -2,14 +2,16 @@
 // design parameter (a spacing, a focal length, a working distance), a
 // function that builds the system for a value, and the quantities to
 // report; the result is a table with units in its headers (and, through
-// optplot, a figure), with no hand-built rows.
+// optplot, a figure), with no hand-built rows. [Grid] does the same over
+// two parameters at once.
 //
 //	res, err := sweep.Over("lens gap", []units.Length{116 * mm, 118 * mm, 120 * mm}, expander,
 //		sweep.OutputWaistZ(laser), sweep.RadiusAtEnd(laser))
 //
 // Values are SI internally (metres for lengths); each length column is shown
-// in the unit that suits it (µm, mm or m). The package imports paraxial and
-// beam and nothing from plotting or the kernel.
+// in the unit that suits it (µm, mm or m). The package imports paraxial,
+// beam and design (whose measures the built-in quantities are) and nothing
+// from plotting or the kernel.
 package sweep
 
 import (
@@ -18,6 +20,7 @@ import (
 	"strconv"
 
 	"github.com/beamnote/beamnote/opticslib/beam"
+	"github.com/beamnote/beamnote/opticslib/design"
 	"github.com/beamnote/beamnote/opticslib/internal/errtext"
 	"github.com/beamnote/beamnote/opticslib/paraxial"
 	"github.com/beamnote/beamnote/opticslib/table"
@@ -61,59 +64,61 @@ func Number(name, unit string, f func(paraxial.System) (float64, error)) Quantit
 	return Quantity{Name: name, Kind: KindNumber, Unit: unit, Of: f}
 }
 
+// The built-in quantities measure as package design does, so that a
+// what-if sweep and a design goal on the same quantity agree to the bit:
+// each is a thin wrapper over a design measure.
+
 // OutputWaistZ is the position of the waist of the beam leaving the
-// system (beam.Waists, last element), from the input plane.
+// system (beam.Waists, last element), from the input plane
+// ([design.WaistZ]).
 func OutputWaistZ(in beam.Input) Quantity {
-	return Length("output waist z", func(s paraxial.System) (units.Length, error) {
-		ws, err := beam.Waists(s, in)
-		return ws.Last().Z, err
-	})
+	return Length("output waist z", design.WaistZ(in))
 }
 
-// OutputWaistRadius is the waist radius of the beam leaving the system.
+// OutputWaistRadius is the waist radius of the beam leaving the system
+// ([design.WaistRadius]).
 func OutputWaistRadius(in beam.Input) Quantity {
-	return Length("output w0", func(s paraxial.System) (units.Length, error) {
-		ws, err := beam.Waists(s, in)
-		return ws.Last().Radius, err
-	})
+	return Length("output w0", design.WaistRadius(in))
 }
 
-// RadiusAtEnd is the beam radius at the output plane of the system.
+// RadiusAtEnd is the beam radius (x) at the output plane of the system
+// ([design.RadiusAt] with no label).
 func RadiusAtEnd(in beam.Input) Quantity {
-	return Length("w at the output plane", func(s paraxial.System) (units.Length, error) {
-		g, err := beam.AtXY(s, in, s.Length())
-		return g.X.Radius(), err
-	})
+	return Length("w at the output plane", design.RadiusAt(in, ""))
 }
 
-// RadiusAt is the beam radius (x) just after the part labelled label.
+// RadiusAt is the beam radius (x) just after the part labelled label
+// ([design.RadiusAt]; an empty label means the output plane).
 func RadiusAt(in beam.Input, label string) Quantity {
-	return Length("w at "+label, func(s paraxial.System) (units.Length, error) {
-		p, err := s.Part(label)
-		if err != nil {
-			return 0, err
-		}
-		g, err := beam.AtXY(s, in, p.End)
-		return g.X.Radius(), err
-	})
+	return Length("w at "+label, design.RadiusAt(in, label))
 }
 
 // ImageZ is the position of the image of the object plane at z = object
-// (tangential plane), from the input plane.
+// (tangential plane), from the input plane ([design.ImageZ]).
 func ImageZ(object units.Length) Quantity {
-	return Length("image z", func(s paraxial.System) (units.Length, error) {
-		c, err := s.Image(object, paraxial.Tangential)
-		return c.Image, err
-	})
+	return Length("image z", design.ImageZ(object))
 }
 
 // Magnification is the transverse magnification of the object plane at
-// z = object (tangential plane).
+// z = object (tangential plane; [design.Magnification]).
 func Magnification(object units.Length) Quantity {
-	return Number("magnification", "", func(s paraxial.System) (float64, error) {
-		c, err := s.Image(object, paraxial.Tangential)
-		return c.Magnification, err
-	})
+	return Number("magnification", "", design.Magnification(object))
+}
+
+// OfGoal is the value a design goal measures, named as the goal: a length
+// for a goal on lengths (metres), a number in "rad" for one on angles and
+// a plain number otherwise, so that its values and the goal's range
+// ([design.Goal.Range]) are in the same unit. Sweep it to see where the
+// goal is met, and shade the range in the figure.
+func OfGoal(g design.Goal) Quantity {
+	of := func(s paraxial.System) (float64, error) {
+		t, err := g.Target(s)
+		return t.Value, err
+	}
+	if g.Unit() == "m" {
+		return Quantity{Name: g.Name, Kind: KindLength, Of: of}
+	}
+	return Number(g.Name, g.Unit(), of)
 }
 
 // Result is a finished sweep: the parameter values and, for each quantity,
@@ -140,10 +145,11 @@ var ErrNoCases = errors.New("sweep: need at least one parameter value and one qu
 // naming the parameter value and the quantity that failed, and one for a
 // non-finite value.
 func Over(param string, values []units.Length, build func(units.Length) (paraxial.System, error), qs ...Quantity) (Result, error) {
-	r, err := run(param, values, func(v units.Length) string { return v.String() }, build, qs)
+	r, err := run(values, func(v units.Length) string { return param + " = " + v.String() }, build, qs)
 	if err != nil {
 		return Result{}, err
 	}
+	r.Parameter = param
 	r.Values = append([]units.Length(nil), values...)
 	return r, nil
 }
@@ -158,38 +164,45 @@ func Cases[P any](param string, values []P, name func(P) string, build func(P) (
 	if name == nil {
 		return Result{}, ErrNoCases
 	}
-	r, err := run(param, values, name, build, qs)
+	r, err := run(values, func(v P) string { return param + " = " + name(v) }, build, qs)
 	if err != nil {
 		return Result{}, err
 	}
+	r.Parameter = param
 	for _, v := range values {
 		r.Cases = append(r.Cases, name(v))
 	}
 	return r, nil
 }
 
-// run is the one loop of [Over] and [Cases].
-func run[P any](param string, values []P, name func(P) string, build func(P) (paraxial.System, error), qs []Quantity) (Result, error) {
+// run is the one loop of [Over], [Cases] and [Grid]: it builds the
+// system of every case and computes every quantity for it. where names
+// a case in errors ("lens gap = 118 mm").
+func run[P any](values []P, where func(P) string, build func(P) (paraxial.System, error), qs []Quantity) (Result, error) {
 	if len(values) == 0 || len(qs) == 0 || build == nil {
 		return Result{}, ErrNoCases
 	}
-	r := Result{Parameter: param, Quantities: qs, Data: make([][]float64, len(qs))}
+	for _, qt := range qs {
+		if qt.Of == nil {
+			return Result{}, &Error{Quantity: qt.Name, Err: errors.New("has no function (Of is nil)")}
+		}
+	}
+	r := Result{Quantities: qs, Data: make([][]float64, len(qs))}
 	for q := range qs {
 		r.Data[q] = make([]float64, len(values))
 	}
 	for i, v := range values {
-		where := param + " = " + name(v)
 		sys, err := build(v)
 		if err != nil {
-			return Result{}, &Error{Case: where, Err: err}
+			return Result{}, &Error{Case: where(v), Err: err}
 		}
 		for q, qt := range qs {
 			x, err := qt.Of(sys)
 			if err != nil {
-				return Result{}, &Error{Case: where, Quantity: qt.Name, Err: err}
+				return Result{}, &Error{Case: where(v), Quantity: qt.Name, Err: err}
 			}
 			if math.IsNaN(x) || math.IsInf(x, 0) {
-				return Result{}, &Error{Case: where, Quantity: qt.Name, Err: errors.New("value is not finite")}
+				return Result{}, &Error{Case: where(v), Quantity: qt.Name, Err: errors.New("value is not finite")}
 			}
 			r.Data[q][i] = x
 		}
@@ -213,19 +226,23 @@ func (e *Error) Unwrap() error { return e.Err }
 
 // Column returns quantity q's values in the unit its column is shown in,
 // and that unit's symbol ("" for a dimensionless number).
-func (r Result) Column(q int) ([]float64, string) {
-	qt := r.Quantities[q]
-	out := make([]float64, len(r.Data[q]))
+func (r Result) Column(q int) ([]float64, string) { return column(r.Quantities[q], r.Data[q]) }
+
+// column returns data, the values of qt, in the unit they are shown in
+// (for a length, the one table.LengthUnit chooses for all of them), and
+// its symbol.
+func column(qt Quantity, data []float64) ([]float64, string) {
+	out := make([]float64, len(data))
 	if qt.Kind != KindLength {
-		copy(out, r.Data[q])
+		copy(out, data)
 		return out, qt.Unit
 	}
 	ls := make([]units.Length, len(out))
-	for i, v := range r.Data[q] {
+	for i, v := range data {
 		ls[i] = units.Length(v)
 	}
 	u, sym := table.LengthUnit(ls...)
-	for i, v := range r.Data[q] {
+	for i, v := range data {
 		out[i] = v / float64(u)
 	}
 	return out, sym
@@ -233,22 +250,28 @@ func (r Result) Column(q int) ([]float64, string) {
 
 // ParameterColumn returns the parameter values in the unit they are shown
 // in, and its symbol.
-func (r Result) ParameterColumn() ([]float64, string) {
-	u, sym := table.LengthUnit(r.Values...)
-	out := make([]float64, len(r.Values))
-	for i, v := range r.Values {
+func (r Result) ParameterColumn() ([]float64, string) { return lengthColumn(r.Values) }
+
+// lengthColumn returns vs in the unit table.LengthUnit chooses for them,
+// and its symbol.
+func lengthColumn(vs []units.Length) ([]float64, string) {
+	u, sym := table.LengthUnit(vs...)
+	out := make([]float64, len(vs))
+	for i, v := range vs {
 		out[i] = float64(v / u)
 	}
 	return out, sym
 }
 
 // Label returns the column header of quantity q, with its unit.
-func (r Result) Label(q int) string {
-	_, u := r.Column(q)
+func (r Result) Label(q int) string { return label(r.Quantities[q], r.Data[q]) }
+
+func label(qt Quantity, data []float64) string {
+	_, u := column(qt, data)
 	if u == "" {
-		return r.Quantities[q].Name
+		return qt.Name
 	}
-	return r.Quantities[q].Name + " (" + u + ")"
+	return qt.Name + " (" + u + ")"
 }
 
 // Table returns the sweep as a table, one row per case, four significant
@@ -282,14 +305,16 @@ func (r Result) Table() table.Table {
 
 // Find returns the index of the quantity named name, or an error listing
 // the names there are.
-func (r Result) Find(name string) (int, error) {
-	for q, qt := range r.Quantities {
+func (r Result) Find(name string) (int, error) { return find(r.Quantities, name) }
+
+func find(qs []Quantity, name string) (int, error) {
+	for q, qt := range qs {
 		if qt.Name == name {
 			return q, nil
 		}
 	}
 	names := ""
-	for i, qt := range r.Quantities {
+	for i, qt := range qs {
 		if i > 0 {
 			names += ", "
 		}
