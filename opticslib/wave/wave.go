@@ -63,6 +63,14 @@ var ErrUndersampled = errors.New("wave: field spectrum reaches the Nyquist frequ
 // Error reports an invalid parameter, for example
 //
 //	wave: spacing Dx = -1 µm: must be positive and finite
+//
+// or, with Err set, a sampling problem of a result that is returned with
+// it (as strconv returns its best value with a *NumError), for example
+//
+//	wave: focal length f = -2 mm: lens phase aliases: Dx = 5 µm exceeds λ0|f|/(2n·x_max) = 3.33333 µm (field extent x_max = 300 µm): field spectrum reaches the Nyquist frequency (aliasing); use a finer spacing Dx
+//
+// Test for the kind with errors.Is(err, [ErrUndersampled]),
+// [ErrUnresolved] or [ErrOutsideWindow].
 type Error struct {
 	// Param names the parameter, for example "spacing Dx".
 	Param string
@@ -71,12 +79,18 @@ type Error struct {
 	Value any
 	// Reason states the requirement that Value fails.
 	Reason string
+	// Err is nil for an invalid parameter (no result is returned), or
+	// the sentinel of a sampling problem when the result is returned too.
+	Err error
 }
 
 // Error implements the error interface.
 func (e *Error) Error() string {
-	return errtext.Message("wave", "", e.Param, e.Value, e.Reason, nil)
+	return errtext.Message("wave", "", e.Param, e.Value, e.Reason, e.Err)
 }
+
+// Unwrap returns e.Err.
+func (e *Error) Unwrap() error { return e.Err }
 
 // MaxLineSamples is the largest sample count of a [Line] (2²⁴ samples,
 // 256 MiB of complex128) and MaxGridSide the largest side of a [Grid]
