@@ -28,6 +28,10 @@
 //     ellipses with their sense of rotation, overlaid or one panel each.
 //   - [CouplingMisalignment]: coupling efficiency against offset and tilt
 //     with the alignment tolerances marked.
+//   - [Sweep2D]: a quantity of a two-parameter what-if study as a heat map
+//     with the goal band outlined ([BandOf] a design goal).
+//   - [ToleranceHistogram]: a Monte Carlo histogram of a goal with its
+//     wanted range shaded.
 //
 // # Units
 //
