@@ -32,6 +32,9 @@
 //     with the goal band outlined ([BandOf] a design goal).
 //   - [ToleranceHistogram]: a Monte Carlo histogram of a goal with its
 //     wanted range shaded.
+//   - [Plan]: a folded path laid out on a breadboard, to scale from above,
+//     with the hole grid, the part footprints, the beam band and the
+//     warnings of [plan.Lay].
 //
 // # Units
 //
