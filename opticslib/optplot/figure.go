@@ -152,7 +152,19 @@ func (f Figure) SVG() ([]byte, error) {
 	if _, err := c.WriteTo(&buf); err != nil {
 		return nil, err
 	}
-	return c.fix(buf.Bytes()), nil
+	return pngLabel(c.fix(buf.Bytes())), nil
+}
+
+// pngLabel fixes two things in the embedded raster images (a heat map's)
+// that vgsvg writes: the media type, PNG bytes under "data:image/jpg"
+// (browsers sniff past it, stricter SVG renderers refuse it; the PNG
+// signature, base64 "iVBOR", identifies them), and the missing
+// preserveAspectRatio="none", without which SVG's default "xMidYMid meet"
+// letterboxes an image whose pixel grid has another aspect ratio than its
+// box, so that the map no longer lies on its axes (SVG 1.1, §7.8).
+func pngLabel(svg []byte) []byte {
+	svg = bytes.ReplaceAll(svg, []byte("data:image/jpg;base64,iVBOR"), []byte("data:image/png;base64,iVBOR"))
+	return bytes.ReplaceAll(svg, []byte("<image x="), []byte(`<image preserveAspectRatio="none" x=`))
 }
 
 // measuredText is the SVG canvas with the width of every string it draws,

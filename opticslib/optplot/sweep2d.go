@@ -36,10 +36,14 @@ type GoalBand struct {
 
 // BandOf returns the wanted range of a design goal as a band, labelled
 // with the goal's name and wanted range ("output w0 2 ± 0.05 mm"). Its
-// bounds are in the goal's SI unit ([design.Goal.Range]), the unit of
-// the quantity [sweep.OfGoal] makes from the goal.
+// bounds are in the unit of the quantity [sweep.OfGoal] makes from the
+// goal: the goal's SI unit ([design.Goal.Range]), except mrad for an
+// angle.
 func BandOf(g design.Goal) *GoalBand {
 	lo, hi := g.Range()
+	if g.Unit() == "rad" {
+		lo, hi = lo*1e3, hi*1e3
+	}
 	return &GoalBand{Label: g.Name + " " + g.Wanted(), Lo: lo, Hi: hi}
 }
 

@@ -145,8 +145,17 @@ func TestQuantitiesAreDesignMeasures(t *testing.T) {
 		t.Errorf("OfGoal quantity: kind %v, label %q", g.Quantities[0].Kind, g.Label(0))
 	}
 	div := sweep.OfGoal(design.AtMost("divergence", design.Divergence(laser), 1*units.Milliradian))
-	if div.Kind != sweep.KindNumber || div.Unit != "rad" {
-		t.Errorf("OfGoal on an angle: kind %v, unit %q; want a number in rad", div.Kind, div.Unit)
+	if div.Kind != sweep.KindNumber || div.Unit != "mrad" {
+		t.Errorf("OfGoal on an angle: kind %v, unit %q; want a number in mrad", div.Kind, div.Unit)
+	}
+	one, err := paraxial.NewBuilder().Space(50 * units.Millimeter).Build()
+	if err != nil {
+		t.Fatal(err)
+	}
+	v, err := div.Of(one)
+	w := laser.HalfDivergence() // free space keeps the far-field angle (Gaussian-beam identity)
+	if err != nil || math.Abs(v-w.Milliradians()) > 1e-12*w.Milliradians() {
+		t.Errorf("OfGoal on an angle = %g mrad (%v), want %g mrad", v, err, w.Milliradians())
 	}
 }
 

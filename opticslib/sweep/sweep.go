@@ -106,17 +106,24 @@ func Magnification(object units.Length) Quantity {
 }
 
 // OfGoal is the value a design goal measures, named as the goal: a length
-// for a goal on lengths (metres), a number in "rad" for one on angles and
-// a plain number otherwise, so that its values and the goal's range
-// ([design.Goal.Range]) are in the same unit. Sweep it to see where the
-// goal is met, and shade the range in the figure.
+// for a goal on lengths (metres), a number in "mrad" for one on angles
+// (the bench's unit for divergence and tilt) and a plain number
+// otherwise; optplot.BandOf gives the goal's range in the same unit.
+// Sweep it to see where the goal is met, and shade the range in the
+// figure.
 func OfGoal(g design.Goal) Quantity {
 	of := func(s paraxial.System) (float64, error) {
 		t, err := g.Target(s)
 		return t.Value, err
 	}
-	if g.Unit() == "m" {
+	switch g.Unit() {
+	case "m":
 		return Quantity{Name: g.Name, Kind: KindLength, Of: of}
+	case "rad":
+		return Number(g.Name, "mrad", func(s paraxial.System) (float64, error) {
+			v, err := of(s)
+			return v * 1e3, err
+		})
 	}
 	return Number(g.Name, g.Unit(), of)
 }
