@@ -79,10 +79,13 @@
 //	w/a = 0.65 + 1.619 V^(−3/2) + 2.879 V^(−6),   V = 2πa·NA/λ0
 //
 // (D. Marcuse, "Loss analysis of single-mode fiber splices", Bell Syst.
-// Tech. J. 56, 703–718 (1977) [from memory for the form of the fit]). The
-// numerical aperture of a single-mode fibre is the core's, √(n₁² − n₂²):
-// it enters only through V, never as the divergence of the mode, which is
-// λ0/(πw). Coupling at the fibre face is the overlap of the beam with the
+// Tech. J. 56, 703–718 (1977) [from memory for the form of the fit]),
+// within 0.81 % of the best-overlap Gaussian radius of the exact LP₀₁
+// mode for 1.2 ≤ V ≤ 2.405 (measured; see [MarcuseRatio]). Above the
+// LP₁₁ cut-off V = 2.405 the fibre is multimode and [FibreFromCore]
+// returns an error wrapping [ErrNotSingleMode]. The numerical aperture of
+// a single-mode fibre is the core's, √(n₁² − n₂²): it enters only through
+// V, never as the divergence of the mode, which is λ0/(πw). Coupling at the fibre face is the overlap of the beam with the
 // mode, a waist at the face; Fresnel reflection at the face is not
 // included.
 //
@@ -93,7 +96,9 @@
 // length: a 1-D root search over the first lens position with the
 // one-lens formula for the second), and [Solve] maximises the overlap over
 // free focal lengths, positions and the total length within bounds with
-// gonum/optimize's Nelder–Mead method from several starts. Every [Match]
+// gonum/optimize's Nelder–Mead method from several starts; with
+// [Problem].MinEfficiency set, an unreachable target is an error naming
+// the best efficiency and the bounds active there. Every [Match]
 // carries the [paraxial.System] (input plane to target plane), so its
 // caustic can be drawn with optplot.
 //

@@ -21,7 +21,8 @@ var (
 	ErrOutsideFit = errors.New("couple: V-number below 1.2, outside the range of Marcuse's fit")
 	// ErrNoSolution: a mode-matching closed form has no physical
 	// solution (the lens is too weak, or the solutions fall outside the
-	// path).
+	// path), or [Solve] cannot reach the Problem's MinEfficiency inside
+	// its bounds or under the model's bound for M² > 1.
 	ErrNoSolution = errors.New("couple: no mode-matching solution")
 )
 

@@ -6,6 +6,7 @@ import (
 	"math/rand/v2"
 	"slices"
 	"strconv"
+	"strings"
 
 	"gonum.org/v1/gonum/optimize"
 
@@ -38,10 +39,17 @@ type Lens struct {
 // documentation for the model), in which case the best efficiency is
 // 2/(M² + 1) per direction. Both beams must be round and in the same
 // medium, of the same wavelength.
+//
+// MinEfficiency (a power fraction in [0, 1]; 0 means none) is the
+// efficiency the solution must reach: [Solve] returns an error wrapping
+// [ErrNoSolution] when the best placement inside the bounds couples less,
+// or when MinEfficiency exceeds the model's bound (2/(M² + 1))² for an
+// input with M² > 1.
 type Problem struct {
 	Input, Target        beam.Gaussian
 	Lenses               []Lens
 	MinLength, MaxLength units.Length
+	MinEfficiency        float64
 }
 
 // PlacedLens is a lens of a solution: label, focal length and position
@@ -123,8 +131,9 @@ func kogelnik(f, z1, z2, s float64) (d1, d2 float64, ok bool) {
 // section]). Each solution with the lens at z ≥ 0 and the target plane
 // after it is returned, shortest first, with efficiency 1 (2/(M² + 1)² for
 // an input with M² > 1). It returns a *ParamError for invalid beams or f,
-// and one wrapping [ErrNoSolution] if |f| < f0 or no solution lies on the
-// path.
+// and one wrapping [ErrNoSolution] if |f| < f0 (the message gives f and
+// f0) or no solution lies on the path (the message gives where the two
+// solutions put the lens and the target plane).
 func MatchOneLens(in, target beam.Gaussian, f units.Length) ([]Match, error) {
 	if err := checkPair(in, target); err != nil {
 		return nil, err
@@ -135,15 +144,19 @@ func MatchOneLens(in, target beam.Gaussian, f units.Length) ([]Match, error) {
 	zw1, zr1 := embedded(in)
 	zw2, zr2 := embedded(target)
 	var out []Match
+	var off []string // the solutions off the path, for the error
 	for _, s := range []float64{-1, 1} {
 		d1, d2, ok := kogelnik(float64(f), zr1, zr2, s)
 		if !ok {
 			return nil, &ParamError{Subject: "lens", Param: "focal length f", Value: f,
-				Reason: "is shorter than f0 = π w1 w2/λ = " + units.Length(math.Sqrt(zr1*zr2)).String(), Err: ErrNoSolution}
+				Reason: "|f| is below f0 = √(zR1·zR2) = π w1 w2/λ = " + units.Length(math.Sqrt(zr1*zr2)).String() +
+					" (embedded beams: input zR1 = " + units.Length(zr1).String() + ", target zR2 = " + units.Length(zr2).String() + ")",
+				Err: ErrNoSolution}
 		}
 		z := zw1 + d1
 		length := z + d2 - zw2
 		if z < 0 || length < z {
+			off = append(off, "lens at z = "+units.Length(z).String()+", target plane at "+units.Length(length).String())
 			continue
 		}
 		m, err := buildMatch(in, target, []PlacedLens{{"L1", f, units.Length(z)}}, units.Length(length), "closed form, one lens (Kogelnik)")
@@ -155,7 +168,9 @@ func MatchOneLens(in, target beam.Gaussian, f units.Length) ([]Match, error) {
 		}
 	}
 	if len(out) == 0 {
-		return nil, &ParamError{Subject: "lens", Param: "focal length f", Value: f, Reason: "both solutions put the lens before the input plane or after the target plane", Err: ErrNoSolution}
+		return nil, &ParamError{Subject: "lens", Param: "focal length f", Value: f,
+			Reason: "both solutions put the lens before the input plane (z < 0) or the target plane before the lens (" + strings.Join(off, "; ") + ")",
+			Err:    ErrNoSolution}
 	}
 	slices.SortFunc(out, func(a, b Match) int { return cmp.Compare(a.Length, b.Length) })
 	return out, nil
@@ -177,7 +192,10 @@ const twoLensScan = 2000
 // returned by first-lens position. The problem has no closed form in
 // general; this is a root search, not a minimisation. It returns a
 // *ParamError for invalid input, and one wrapping [ErrNoSolution] if no
-// placement exists.
+// placement exists; its message says why: |f2| below the f0 of the beam
+// after L1 for every z1 (with the smallest f0), no placement with L2
+// between L1 and the target plane, or the span of target-plane positions
+// that the placements reach.
 func MatchTwoLenses(in, target beam.Gaussian, f1, f2, length units.Length) ([]Match, error) {
 	if err := checkPair(in, target); err != nil {
 		return nil, err
@@ -194,29 +212,47 @@ func MatchTwoLenses(in, target beam.Gaussian, f1, f2, length units.Length) ([]Ma
 	q0 := complex128(in.Q)
 	zw2, zr2 := embedded(target)
 	L := float64(length)
-	// place returns z2 and the residual L(z1) − length on branch s.
-	place := func(z1, s float64) (z2, r float64, ok bool) {
+	// place returns z2 and the residual L(z1) − length on branch s, and
+	// f0 = √(zR·zR2) of the beam after L1 (ok is false for |f2| < f0).
+	place := func(z1, s float64) (z2, r, f0 float64, ok bool) {
 		q := q0 + complex(z1, 0)
 		q = 1 / (1/q - complex(1/float64(f1), 0))
 		zw := z1 - real(q)
+		f0 = math.Sqrt(imag(q) * zr2)
 		d1, d2, ok := kogelnik(float64(f2), imag(q), zr2, s)
 		if !ok {
-			return 0, 0, false
+			return 0, 0, f0, false
 		}
 		z2 = zw + d1
-		return z2, z2 + d2 - zw2 - L, !bad(z2, d2)
+		return z2, z2 + d2 - zw2 - L, f0, !bad(z2, d2)
 	}
+	// For the error: the smallest f0 met, and the span of the target-plane
+	// positions of the ordered placements (0 ≤ z1 ≤ z2 ≤ target plane).
+	minF0, spanLo, spanHi := math.Inf(1), math.Inf(1), math.Inf(-1)
+	feasible := false
+	var near [3]float64 // z1, z2 and target plane of the ordered placement nearest L
+	nearGap := math.Inf(1)
 	var out []Match
 	for _, s := range []float64{-1, 1} {
 		prevZ, prevR, prevOK := 0.0, 0.0, false
 		for i := 0; i <= twoLensScan; i++ {
 			z := L * float64(i) / twoLensScan
-			_, r, ok := place(z, s)
+			z2, r, f0, ok := place(z, s)
+			minF0 = math.Min(minF0, f0)
+			if ok {
+				feasible = true
+				if zt := r + L; z2 >= z && z2 <= zt {
+					spanLo, spanHi = math.Min(spanLo, zt), math.Max(spanHi, zt)
+					if math.Abs(r) < nearGap {
+						nearGap, near = math.Abs(r), [3]float64{z, z2, zt}
+					}
+				}
+			}
 			if ok && prevOK && (r == 0 || (r > 0) != (prevR > 0)) {
 				lo, hi, rlo := prevZ, z, prevR
 				for range 200 {
 					mid := (lo + hi) / 2
-					_, rm, okm := place(mid, s)
+					_, rm, _, okm := place(mid, s)
 					if !okm || mid == lo || mid == hi {
 						break
 					}
@@ -227,7 +263,7 @@ func MatchTwoLenses(in, target beam.Gaussian, f1, f2, length units.Length) ([]Ma
 					}
 				}
 				z1 := (lo + hi) / 2
-				z2, rr, okr := place(z1, s)
+				z2, rr, _, okr := place(z1, s)
 				if okr && z2 >= z1 && z2 <= L && math.Abs(rr) <= 1e-9*L {
 					m, err := buildMatch(in, target, []PlacedLens{{"L1", f1, units.Length(z1)}, {"L2", f2, units.Length(z2)}},
 						length, "closed form, two lenses (Kogelnik for L2, 1-D root search over z1)")
@@ -241,7 +277,26 @@ func MatchTwoLenses(in, target beam.Gaussian, f1, f2, length units.Length) ([]Ma
 		}
 	}
 	if len(out) == 0 {
-		return nil, &ParamError{Param: "length L", Value: length, Reason: "no placement of f1 = " + f1.String() + " and f2 = " + f2.String() + " matches the target", Err: ErrNoSolution}
+		e := &ParamError{Param: "length L", Value: length, Err: ErrNoSolution}
+		switch {
+		case !feasible:
+			e.Subject, e.Param, e.Value = `lens "L2"`, "focal length f2", f2
+			e.Reason = "|f2| is below f0 = √(zR·zR2) of the beam after L1 (f1 = " + f1.String() + ") for every z1 from 0 to " +
+				length.String() + " (smallest f0 = " + units.Length(minF0).String() + ")"
+		case spanLo > spanHi:
+			e.Reason = "every placement of f1 = " + f1.String() + " and f2 = " + f2.String() + " puts L2 before L1 or after the target plane"
+		default:
+			e.Reason = "the placements of f1 = " + f1.String() + " and f2 = " + f2.String() + " with 0 ≤ z1 ≤ z2 put the target plane between " +
+				units.Length(spanLo).String() + " and " + units.Length(spanHi).String()
+			if L < spanLo || L > spanHi {
+				e.Reason += ", never at L"
+			} else {
+				e.Reason += ", but none at L (it lies across a jump between neighbouring z1)"
+			}
+			e.Reason += " (nearest: z1 = " + units.Length(near[0]).String() + ", z2 = " + units.Length(near[1]).String() +
+				", target plane at " + units.Length(near[2]).String() + ")"
+		}
+		return nil, e
 	}
 	slices.SortFunc(out, func(a, b Match) int { return cmp.Compare(a.Lenses[0].Z, b.Lenses[0].Z) })
 	return out, nil
@@ -293,7 +348,22 @@ func (iv interval) at(x float64) float64 { return iv.lo + (iv.hi-iv.lo)*(1-math.
 // seeded random starts beyond), then once more from the best point. The
 // result is a local optimum of the best start, not a proof of the global
 // one; a bound that is active or an efficiency below 1 shows in the
-// table. It returns a *ParamError for invalid beams, lenses or bounds.
+// table. It returns a *ParamError for invalid beams, lenses or bounds
+// (also a MinEfficiency outside [0, 1] or NaN). With p.MinEfficiency > 0
+// it returns a *ParamError wrapping [ErrNoSolution] when the best
+// efficiency found is below it, together with that best Match; the
+// message gives the efficiency reached and the bounds active at the best
+// point, for example
+//
+//	couple: minimum efficiency MinEfficiency = 0.95: the best efficiency inside the bounds is 0.928549;
+//	active bounds: lens "launch lens" focal length at its lower bound FocalMin 8 mm;
+//	lens "launch lens" position at its upper bound ZMax 60 mm: no mode-matching solution
+//
+// (printed on one line; see [ExampleSolve])
+//
+// and, before any search, one wrapping [ErrNoSolution] when MinEfficiency
+// exceeds the bound (2/(M² + 1))² of an input with M² > 1 (see
+// [Coupling.Bound]).
 func Solve(p Problem) (Match, error) {
 	if err := checkPair(p.Input, p.Target); err != nil {
 		return Match{}, err
@@ -302,14 +372,25 @@ func Solve(p Problem) (Match, error) {
 		return Match{}, &ParamError{Param: "length bounds MinLength", Value: p.MinLength,
 			Reason: "need 0 < MinLength ≤ MaxLength (= " + p.MaxLength.String() + "), both finite"}
 	}
+	if !(p.MinEfficiency >= 0 && p.MinEfficiency <= 1) {
+		return Match{}, &ParamError{Param: "minimum efficiency MinEfficiency", Value: p.MinEfficiency, Reason: "must lie between 0 and 1 (0 means none)"}
+	}
+	if m2 := p.Input.BeamQuality(); m2 > 1 {
+		if b := math.Pow(2/(m2+1), 2); p.MinEfficiency > b {
+			return Match{}, &ParamError{Param: "minimum efficiency MinEfficiency", Value: p.MinEfficiency,
+				Reason: "exceeds the bound (2/(M² + 1))² = " + strconv.FormatFloat(b, 'g', 6, 64) + " for the input's M² = " + formatG(m2) +
+					": no placement of lenses couples more into a TEM00 target (Gaussian Schell model)",
+				Err: ErrNoSolution}
+		}
+	}
 	if len(p.Lenses) == 0 || len(p.Lenses) > 8 {
 		return Match{}, &ParamError{Param: "number of lenses", Value: len(p.Lenses), Reason: "must be 1 to 8"}
 	}
 	lengthIV := interval{float64(p.MinLength), float64(p.MaxLength)}
 	type lensIV struct {
-		label string
-		f, z  interval
-		zfree bool
+		label, name string // name is `lens "label"`, for messages
+		f, z        interval
+		zfree       bool
 	}
 	lenses := make([]lensIV, len(p.Lenses))
 	for i, l := range p.Lenses {
@@ -337,7 +418,7 @@ func Solve(p Problem) (Match, error) {
 			return Match{}, &ParamError{Subject: name, Param: "position bound ZMin", Value: l.ZMin,
 				Reason: "need 0 ≤ ZMin ≤ ZMax (= " + l.ZMax.String() + "), both finite"}
 		}
-		lenses[i] = lensIV{label, f, z, zfree}
+		lenses[i] = lensIV{label, name, f, z, zfree}
 	}
 	// The free parameters, in order: L, then per lens f and z.
 	type slot struct{ kind, lens int }
@@ -357,13 +438,33 @@ func Solve(p Problem) (Match, error) {
 	dst := axisOf(p.Target, k)
 	scale := float64(p.MaxLength)
 	// evaluate maps x to the placement and returns 1 − η plus a penalty
-	// for an empty position range.
-	evaluate := func(x []float64) (float64, []PlacedLens, float64) {
+	// for an empty position range. If active is not nil, it appends the
+	// bounds that the placement sits on (within atBound of the range).
+	evaluate := func(x []float64, active *[]string) (float64, []PlacedLens, float64) {
 		xi := 0
-		next := func() float64 { v := x[xi]; xi++; return v }
+		// next returns the next free parameter in iv and, if active is
+		// not nil, on which bound it sits: −1 lower, +1 upper, 0 none.
+		next := func(iv interval) (float64, int) {
+			v, side := iv.at(x[xi]), 0
+			if frac := (1 - math.Cos(x[xi])) / 2; active != nil && frac <= atBound {
+				side = -1
+			} else if active != nil && frac >= 1-atBound {
+				side = 1
+			}
+			xi++
+			return v, side
+		}
+		note := func(s string) { *active = append(*active, s) }
 		L := lengthIV.lo
 		if !lengthIV.fixed() {
-			L = lengthIV.at(next())
+			var side int
+			L, side = next(lengthIV)
+			switch side {
+			case -1:
+				note("total length at MinLength " + p.MinLength.String())
+			case 1:
+				note("total length at MaxLength " + p.MaxLength.String())
+			}
 		}
 		placed := make([]PlacedLens, len(lenses))
 		var penalty float64
@@ -371,7 +472,14 @@ func Solve(p Problem) (Match, error) {
 		for i, l := range lenses {
 			f := l.f.lo
 			if !l.f.fixed() {
-				f = l.f.at(next())
+				var side int
+				f, side = next(l.f)
+				switch side {
+				case -1:
+					note(l.name + " focal length at its lower bound FocalMin " + units.Length(l.f.lo).String())
+				case 1:
+					note(l.name + " focal length at its upper bound FocalMax " + units.Length(l.f.hi).String())
+				}
 			}
 			iv := interval{prev, L}
 			if !l.zfree {
@@ -379,11 +487,28 @@ func Solve(p Problem) (Match, error) {
 			}
 			if iv.hi < iv.lo {
 				penalty += (iv.lo - iv.hi) / scale
+				if active != nil {
+					note(l.name + " position range " + units.Length(l.z.lo).String() + " to " + units.Length(l.z.hi).String() +
+						" lies outside the room between the previous lens and the target plane")
+				}
 				iv.hi = iv.lo
 			}
 			z := iv.lo
 			if l.zfree || !l.z.fixed() {
-				z = iv.at(next())
+				var side int
+				z, side = next(iv)
+				switch {
+				case side == -1 && !l.zfree && l.z.lo >= prev:
+					note(l.name + " position at its lower bound ZMin " + units.Length(l.z.lo).String())
+				case side == -1 && i == 0:
+					note(l.name + " position at the input plane")
+				case side == -1:
+					note(l.name + " position against lens " + strconv.Quote(placed[i-1].Label))
+				case side == 1 && !l.zfree && l.z.hi <= L:
+					note(l.name + " position at its upper bound ZMax " + units.Length(l.z.hi).String())
+				case side == 1:
+					note(l.name + " position at the target plane " + units.Length(L).String())
+				}
 			}
 			placed[i] = PlacedLens{l.label, units.Length(f), units.Length(z)}
 			prev = z
@@ -433,9 +558,9 @@ func Solve(p Problem) (Match, error) {
 		}
 	}
 	bestX := starts[0]
-	bestF, _, _ := evaluate(bestX)
+	bestF, _, _ := evaluate(bestX, nil)
 	if n > 0 {
-		prob := optimize.Problem{Func: func(x []float64) float64 { v, _, _ := evaluate(x); return v }}
+		prob := optimize.Problem{Func: func(x []float64) float64 { v, _, _ := evaluate(x, nil); return v }}
 		settings := &optimize.Settings{FuncEvaluations: 4000, Converger: &optimize.FunctionConverge{Absolute: 1e-15, Iterations: 60}}
 		run := func(x0 []float64) {
 			res, err := optimize.Minimize(prob, x0, settings, &optimize.NelderMead{})
@@ -451,10 +576,28 @@ func Solve(p Problem) (Match, error) {
 		}
 		run(slices.Clone(bestX))
 	}
-	_, placed, L := evaluate(bestX)
+	var active []string
+	_, placed, L := evaluate(bestX, &active)
 	method := "numerical: Nelder–Mead (gonum/optimize) over " + strconv.Itoa(n) + " free parameters from " + strconv.Itoa(len(starts)) + " starts"
 	if n == 0 {
 		method = "evaluated (no free parameters)"
 	}
-	return buildMatch(p.Input, p.Target, placed, units.Length(L), method)
+	m, err := buildMatch(p.Input, p.Target, placed, units.Length(L), method)
+	if err != nil || m.Coupling.Efficiency >= p.MinEfficiency {
+		return m, err
+	}
+	where := "no bound is active there (a local optimum inside the bounds, or all parameters fixed)"
+	if len(active) > 0 {
+		where = "active bounds: " + strings.Join(active, "; ")
+	}
+	return m, &ParamError{Param: "minimum efficiency MinEfficiency", Value: p.MinEfficiency,
+		Reason: "the best efficiency inside the bounds is " + strconv.FormatFloat(m.Coupling.Efficiency, 'g', 6, 64) + "; " + where,
+		Err:    ErrNoSolution}
 }
+
+// atBound is the fraction of a parameter's range within which [Solve]
+// reports the parameter as sitting on a bound. The map lo + (hi −
+// lo)(1 − cos x)/2 has zero slope at the bounds, so an optimum that the
+// bound cuts off converges to within (Δx)²/4 of it: Δx ≈ 1e-3 in x gives
+// 2.5e-7.
+const atBound = 1e-5

@@ -124,9 +124,10 @@ func TestR40Misalignment(t *testing.T) {
 	}
 }
 
-// Identical modes couple 1 (the normalisation of the overlap integral),
-// for round, elliptical and astigmatic beams with curvature. Tolerance
-// 1e-14 (rounding of |a + a*| against 2 Re a).
+// Identical modes couple 1 (an analytic identity: the normalisation of
+// the overlap integral, |⟨u|u⟩|² = ⟨u|u⟩²), for round, elliptical and
+// astigmatic beams with curvature. Tolerance 1e-14 (rounding of |a + a*|
+// against 2 Re a).
 func TestIdenticalModes(t *testing.T) {
 	const lambda = 633 * units.Nanometer
 	round := waist(t, 0.3*units.Millimeter, -0.25, lambda, 1)
@@ -230,6 +231,10 @@ func TestTolerances(t *testing.T) {
 		t.Errorf("TiltTolerance(1 dB) = %v, want 0.4799 θ0 = %v", tx, units.Angle(theta0*math.Sqrt(0.1*math.Log(10))))
 	}
 	// A mismatched, curved pair: the tolerance reproduces the fraction.
+	// The misalignment factor of two Gaussians is exactly Gaussian in d
+	// and θ (the Gaussian integral; Joyce & DeLoach 1984 [from memory]),
+	// so the offset and tilt that leave the fraction must give it back
+	// through the full overlap, to rounding.
 	a, b := waist(t, 5*units.Micrometer, 20*units.Micrometer, lambda, 1), waist(t, 3.5*units.Micrometer, 0, lambda, 1)
 	c = mustOverlap(t, a, b, couple.Misalignment{})
 	for _, frac := range []float64{couple.OneDecibel, 0.5, 0.99} {
@@ -247,8 +252,10 @@ func TestTolerances(t *testing.T) {
 	}
 }
 
-// OverlapSeparated carries beam a over the gap: two waists given at their
-// own waist planes a gap apart couple as R13 says.
+// OverlapSeparated carries beam a over the gap (q → q + gap, Kogelnik &
+// Li 1966): two waists given at their own waist planes a gap apart couple
+// as R13's closed form says (Kogelnik 1964 [from memory]). Rel 1e-12,
+// rounding.
 func TestOverlapSeparated(t *testing.T) {
 	const lambda = 532 * units.Nanometer
 	w1, w2, gap := 0.1*units.Millimeter, 0.15*units.Millimeter, 37*units.Millimeter
@@ -262,7 +269,9 @@ func TestOverlapSeparated(t *testing.T) {
 }
 
 // Errors name the parameter with its value and unit and wrap the
-// sentinels; no NaN comes back.
+// sentinels; no NaN comes back. No outside reference: the texts are the
+// package's own message format (opticslib/internal/errtext), and the
+// 0.5 rad tilt limit is beam.MaxDivergence.
 func TestOverlapErrors(t *testing.T) {
 	a := waist(t, 1*units.Millimeter, 0, 633*units.Nanometer, 1)
 	b := waist(t, 1*units.Millimeter, 0, 532*units.Nanometer, 1)

@@ -4,7 +4,9 @@
 // The scripts run with $BEAMNOTE_PYTHON if set, else the system interpreter
 // /usr/bin/python3, which sees Debian's python3-numpy and python3-scipy (the
 // python3 first on PATH may not). Tests skip, saying why, where the
-// interpreter or the modules are missing; CI installs them.
+// interpreter or the modules are missing, except under CI=true: CI
+// installs them, so there a missing reference fails the test rather than
+// letting a cross-check pass unseen.
 package pyref
 
 import (
@@ -29,16 +31,23 @@ func Python() string {
 // Run writes in as JSON to a temporary file, runs the reference script
 // testdata/crosscheck/<script> on it and decodes the script's JSON output
 // into out. It skips the test if the interpreter or numpy/scipy are
-// unavailable, and fails it if the script itself fails. Tests must run in a
+// unavailable (fails it under CI=true), and fails it if the script itself
+// fails. Tests must run in a
 // package directory two levels below the checkout (opticslib/<pkg>).
 func Run(t testing.TB, script string, in, out any) {
 	t.Helper()
+	skip := t.Skipf
+	if os.Getenv("CI") == "true" {
+		skip = t.Fatalf // CI installs the references: a missing one is a failure there
+	}
 	python, err := exec.LookPath(Python())
 	if err != nil {
-		t.Skipf("cross-check skipped: %s not found (install python3-numpy and python3-scipy, or set BEAMNOTE_PYTHON): %v", Python(), err)
+		skip("cross-check skipped: %s not found (install python3-numpy and python3-scipy, or set BEAMNOTE_PYTHON): %v", Python(), err)
+		return
 	}
 	if msg, err := exec.Command(python, "-c", "import numpy, scipy").CombinedOutput(); err != nil {
-		t.Skipf("cross-check skipped: %s cannot import numpy and scipy (install python3-numpy python3-scipy): %v\n%s", python, err, msg)
+		skip("cross-check skipped: %s cannot import numpy and scipy (install python3-numpy python3-scipy): %v\n%s", python, err, msg)
+		return
 	}
 	dir := t.TempDir()
 	inPath, outPath := filepath.Join(dir, "in.json"), filepath.Join(dir, "out.json")
