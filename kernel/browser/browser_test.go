@@ -64,6 +64,7 @@ type pageReport struct {
 	Seconds    map[string]float64 `json:"seconds"`
 	Cells      []pageCell         `json:"cells"`
 	Notebook   json.RawMessage    `json:"notebook"`
+	Live       []liveReport       `json:"live"`
 	Exceptions []string           `json:"exceptions"`
 	Console    []string           `json:"console"`
 	Warnings   []string           `json:"warnings"`
@@ -71,6 +72,37 @@ type pageReport struct {
 		Path          string `json:"path"`
 		Width, Height int
 	} `json:"screenshot"`
+}
+
+// liveReport is what the driver did with one live what-if (kernel/nb/live):
+// its moves, bursts and done.
+type liveReport struct {
+	ID      string `json:"id"`
+	Cell    int    `json:"cell"`
+	Sliders []struct {
+		Name string `json:"name"`
+		N    int    `json:"n"`
+	} `json:"sliders"`
+	Moves  []liveMove `json:"moves"`
+	Bursts []liveMove `json:"bursts"`
+	Done   bool       `json:"done"`
+	Ended  string     `json:"ended"`
+	Error  string     `json:"error"`
+}
+
+// liveMove is one move (or a burst of moves) of a slider and the figure's
+// answer: ms from the input event to the new figure in the page's DOM,
+// PaintedMS two animation frames later.
+type liveMove struct {
+	Slider    int     `json:"slider"`
+	To        int     `json:"to"`
+	Moves     int     `json:"moves"` // a burst's input events
+	Want      string  `json:"want"`  // the value the figure must name
+	MS        float64 `json:"ms"`
+	PaintedMS float64 `json:"painted_ms"`
+	Changed   bool    `json:"changed"`
+	Updates   int     `json:"updates"` // figures shown meanwhile
+	Error     string  `json:"error"`
 }
 
 // pageCell is one cell as the page shows it.
@@ -104,6 +136,77 @@ type pageSVG struct {
 // the page and checks what the page shows; see the package documentation.
 // Each notebook is a subtest named after its file.
 func TestBrowserRunAll(t *testing.T) {
+	browse(t, func(root string) ([]string, error) { return notebookList(root, os.Getenv(notebooksVar)) }, nil)
+}
+
+// sliderNotebook is the notebook of TestBrowserSlider, relative to the
+// checkout: the test notebook of kernel/nb/live (its headless run is
+// kernel/nb/live's TestSliderCellHeadless).
+var sliderNotebook = filepath.Join("kernel", "nb", "live", "testdata", "slider.ipynb")
+
+// TestBrowserSlider runs the live what-if notebook of kernel/nb/live in the
+// browser: the driver moves its slider (setting the range input's value
+// and dispatching input and change events, as a drag does), checks that
+// each move replaces the figure with one drawn at the new value, sends a
+// burst of moves that must end at its last value, presses done, and the
+// cell must complete with the controls replaced by their end line and the
+// last figure kept. The round trip from a move to the new figure in the
+// page is logged (go test -v); it is a measurement, not a pass mark.
+func TestBrowserSlider(t *testing.T) {
+	browse(t, func(root string) ([]string, error) {
+		return notebookList(root, sliderNotebook)
+	}, func(t *testing.T, name string, rep *pageReport) {
+		if len(rep.Live) == 0 {
+			t.Fatalf("%s: the driver met no live slider (no .beamnote-live controls went live)", name)
+		}
+		for _, lv := range rep.Live {
+			if len(lv.Moves) < 4 || len(lv.Bursts) == 0 {
+				t.Errorf("%s: cell %d: %d moves and %d bursts, want at least 4 and 1", name, lv.Cell, len(lv.Moves), len(lv.Bursts))
+			}
+		}
+		var nb ipynb.Notebook
+		if err := json.Unmarshal(rep.Notebook, &nb); err != nil {
+			t.Fatalf("%s: %v", name, err)
+		}
+		lv := rep.Live[0]
+		if lv.Cell < 0 || lv.Cell >= len(nb.Cells) {
+			t.Fatalf("%s: live cell index %d", name, lv.Cell)
+		}
+		// The notebook as the page holds it (what a save writes): the end
+		// line in place of the controls, the figure at the last value.
+		last := lv.Bursts[len(lv.Bursts)-1].Want
+		var ended, figure bool
+		for _, o := range nb.Cells[lv.Cell].Outputs {
+			text := ipynb.Text(o.Data["text/plain"])
+			if strings.Contains(text, "live what-if ended (done)") && strings.HasPrefix(text, last) {
+				ended = true
+			}
+			if _, ok := o.Data["image/svg+xml"]; ok && strings.HasSuffix(text, "· "+last+"]") {
+				figure = true
+			}
+			if h := ipynb.Text(o.Data["text/html"]); strings.Contains(h, `data-state="`) {
+				t.Errorf("%s: cell %d keeps its live controls after done", name, lv.Cell)
+			}
+		}
+		if !ended || !figure {
+			t.Errorf("%s: cell %d after done: end line %v, figure at %q %v; outputs %s", name, lv.Cell, ended, last, figure, outputTexts(nb.Cells[lv.Cell]))
+		}
+	})
+}
+
+// outputTexts lists the text/plain of a cell's outputs, for messages.
+func outputTexts(c ipynb.Cell) string {
+	var ts []string
+	for _, o := range c.Outputs {
+		ts = append(ts, clip(ipynb.Text(o.Data["text/plain"])+ipynb.Text(o.Text)))
+	}
+	return strings.Join(ts, " | ")
+}
+
+// browse starts the notebook server and Chromium, and runs each notebook
+// that list returns (given the checkout's root) as a subtest: Run All from
+// the page, checkReport, then more, if not nil.
+func browse(t *testing.T, list func(root string) ([]string, error), more func(t *testing.T, name string, rep *pageReport)) {
 	if testing.Short() {
 		t.Skip("starts a notebook server, kernels and Chromium")
 	}
@@ -146,7 +249,7 @@ func TestBrowserRunAll(t *testing.T) {
 		t.Fatal(err)
 	}
 	trackInputs(t, l.Root, driver)
-	notebooks, err := notebookList(l.Root, os.Getenv(notebooksVar))
+	notebooks, err := list(l.Root)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -211,6 +314,9 @@ func TestBrowserRunAll(t *testing.T) {
 			defer srv.shutdownKernels(t, filepath.Base(nb))
 			rep := r.runNotebook(ctx, t, py, driver, devtools, srv, filepath.Base(nb), artefacts)
 			checkReport(t, name, rep, bytes.Contains(src, []byte("optplot.Caustic(")), artefacts)
+			if more != nil {
+				more(t, name, rep)
+			}
 		})
 	}
 	t.Logf("%d notebook(s) in %.1f s; screenshots in %s", len(notebooks), time.Since(start).Seconds(), artefacts)
@@ -386,6 +492,7 @@ func checkReport(t *testing.T, name string, rep *pageReport, wantCaustic bool, a
 	if code == 0 {
 		t.Errorf("%s: the page shows no code cell", name)
 	}
+	checkLive(t, name, rep.Live)
 	var nb ipynb.Notebook
 	if err := json.Unmarshal(rep.Notebook, &nb); err != nil {
 		t.Errorf("%s: the notebook from the page is not nbformat JSON: %v", name, err)
@@ -401,6 +508,53 @@ func checkReport(t *testing.T, name string, rep *pageReport, wantCaustic bool, a
 		t.Errorf("%s: the notebook calls optplot.Caustic but the page shows no inline <svg> with %q", name, optplot.YLabel)
 	}
 	t.Logf("%s: %d code cells ran, %d inline figures (%d caustics)", name, code, figures, caustics)
+}
+
+// checkLive fails t for a live what-if whose figure did not follow a move,
+// whose burst did not end at its last value, or that did not end on done;
+// it logs the round trips (move → new figure in the page).
+func checkLive(t *testing.T, name string, lives []liveReport) {
+	t.Helper()
+	for _, lv := range lives {
+		where := fmt.Sprintf("%s: live what-if in cell %d", name, lv.Cell)
+		var ms, painted []float64
+		for _, m := range lv.Moves {
+			switch {
+			case m.Error != "":
+				t.Errorf("%s: move of slider %d to %d: %s", where, m.Slider, m.To, m.Error)
+			case !m.Changed:
+				t.Errorf("%s: move of slider %d to %d: the figure names %q but did not change", where, m.Slider, m.To, m.Want)
+			default:
+				ms, painted = append(ms, m.MS), append(painted, m.PaintedMS)
+			}
+		}
+		for _, b := range lv.Bursts {
+			if b.Error != "" {
+				t.Errorf("%s: burst of %d moves of slider %d: %s", where, b.Moves, b.Slider, b.Error)
+				continue
+			}
+			t.Logf("%s: a burst of %d moves (one drag) ended at %q after %.0f ms, with %d figures drawn meanwhile (only the latest position is drawn)",
+				where, b.Moves, b.Want, b.MS, b.Updates)
+		}
+		if !lv.Done || lv.Ended == "" {
+			t.Errorf("%s: done did not end it (pressed %v; %s)", where, lv.Done, lv.Error)
+		} else {
+			t.Logf("%s: after done: %s", where, strings.TrimSpace(lv.Ended))
+		}
+		if len(ms) > 0 {
+			t.Logf("%s: round trip, slider move → new figure in the page, %d moves: median %.0f ms (min %.0f, max %.0f); painted: median %.0f ms (max %.0f)",
+				where, len(ms), median(ms), slices.Min(ms), slices.Max(ms), median(painted), slices.Max(painted))
+		}
+	}
+}
+
+// median is the median of xs (not empty).
+func median(xs []float64) float64 {
+	s := slices.Sorted(slices.Values(xs))
+	if n := len(s); n%2 == 1 {
+		return s[n/2]
+	}
+	return (s[len(s)/2-1] + s[len(s)/2]) / 2
 }
 
 // firstLine is the first line of a cell that says what it does, shortened.

@@ -13,10 +13,24 @@
 // notebook as the page held it (<notebook>.ipynb) and the logs of the
 // server and the browser.
 //
-// The package has no code of its own; the test is
+// Live what-ifs (kernel/nb/live) are exercised wherever a notebook has one:
+// while the cells run, the driver watches for live controls, moves each
+// slider (it sets the range input's value and dispatches input and change
+// events, as a drag does), waits until the cell's figure names the new
+// value and differs from before, times that round trip (input event →
+// new figure in the page's DOM, and to two animation frames later), sends
+// a burst of moves in one go that must end at its last value, and presses
+// done; the cell must then complete with the controls replaced by their
+// end line. TestBrowserSlider does this on kernel/nb/live's test notebook
+// (testdata/slider.ipynb) and also checks the notebook as the page holds
+// it; go test -v logs the round trips. A screenshot of the live controls
+// is kept as <notebook>-live.png.
+//
+// The package has no code of its own; the tests are
 //
 //	go test ./kernel/browser/            (go test -v for timings and warnings)
 //	go test -v -run 'TestBrowserRunAll/02' ./kernel/browser/   one notebook
+//	go test -v -run TestBrowserSlider ./kernel/browser/        the slider, with the round trip
 //
 // # Driver
 //

@@ -20,7 +20,9 @@ running and the kernel is idle, collect per cell the execution count, error
 outputs, stdout and stderr text and inline <svg> figures (their rendered
 size, text drawn past their edge), the notebook as the page holds it
 (nbformat JSON), JavaScript exceptions and console errors, and save a PNG
-of the whole notebook. Only the Notebook 6 path has been run (Debian 12
+of the whole notebook. Live what-if controls (kernel/nb/live) that appear
+while the cells run are exercised (see exercise_live) and reported under
+"live". Only the Notebook 6 path has been run (Debian 12
 packages no Notebook 7 or JupyterLab).
 
 It prints one JSON object on stdout. On failure (timeout, dead kernel, page
@@ -161,6 +163,86 @@ HELPERS = r"""
     }
     return f;
   });
+  // Live what-ifs (kernel/nb/live): controls whose script is wired.
+  bn.liveActive = () => [...document.querySelectorAll('.beamnote-live[data-state="live"]')].map((e) => e.id);
+  const cellOf = (el) => el.closest('.cell, .jp-Cell') || document.body;
+  bn.cellIndex = (id) => {
+    const el = document.getElementById(id);
+    return el ? cells().findIndex((c) => c.el.contains(el)) : -1;
+  };
+  bn.liveSliders = (id) => {
+    const root = document.getElementById(id);
+    if (!root) return [];
+    return [...root.querySelectorAll('input[type=range]')].map((el) => ({
+      name: root.querySelector('label[for="' + el.id + '"]').textContent,
+      n: Number(el.max), value: Number(el.value)}));
+  };
+  // The live figure of the cell: the first figure or render error in it.
+  const liveFigure = (cell) => cell.querySelector('.beamnote-figure, .beamnote-live-error');
+  const frames = () => new Promise((r) => requestAnimationFrame(() => requestAnimationFrame(r)));
+  // liveMove moves slider i of the controls id to positions ks in one go
+  // (input events, as a drag sends), and resolves when the cell's figure
+  // shows the last value: ms from the first event to the figure in the
+  // DOM, painted_ms to two frames later; changed: the figure's markup
+  // differs from before; updates: how many times the figure was replaced.
+  bn.liveMove = (id, i, ks, timeoutMs) => new Promise((resolve) => {
+    const root = document.getElementById(id);
+    if (!root) { resolve({error: 'no live controls ' + id}); return; }
+    const cell = cellOf(root);
+    const input = root.querySelectorAll('input[type=range]')[i];
+    const name = root.querySelector('label[for="' + input.id + '"]').textContent;
+    const out = root.querySelector('output[for="' + input.id + '"]');
+    const before = liveFigure(cell);
+    const beforeHTML = before ? before.outerHTML : '';
+    let seen = before, updates = 0, obs = null, timer = null, finished = false;
+    const t0 = performance.now();
+    for (const k of ks) {
+      input.value = String(k);
+      input.dispatchEvent(new Event('input', {bubbles: true}));
+    }
+    input.dispatchEvent(new Event('change', {bubbles: true}));
+    const want = name + ' = ' + out.textContent;
+    const finish = (res) => {
+      if (finished) return;
+      finished = true;
+      if (obs) obs.disconnect();
+      clearTimeout(timer);
+      res.want = want;
+      res.updates = updates;
+      resolve(res);
+    };
+    const check = () => {
+      const f = liveFigure(cell);
+      if (f && f !== seen) { seen = f; updates++; }
+      if (f && (f.title || f.textContent).includes(want)) {
+        const ms = performance.now() - t0;
+        const changed = f.outerHTML !== beforeHTML;
+        frames().then(() => finish({ms, painted_ms: performance.now() - t0, changed, error: ''}));
+        obs.disconnect();
+      }
+    };
+    obs = new MutationObserver(check);
+    obs.observe(cell, {childList: true, subtree: true, attributes: true, characterData: true});
+    timer = setTimeout(() => {
+      const f = liveFigure(cell);
+      finish({error: 'the figure did not show ' + want + ' within ' + timeoutMs + ' ms (it shows ' +
+        JSON.stringify(f ? (f.title || f.textContent.slice(0, 120)) : null) + ')', ms: timeoutMs});
+    }, timeoutMs);
+    check();
+  });
+  bn.liveDone = (id) => {
+    const root = document.getElementById(id);
+    if (!root) return false;
+    root.querySelector('.beamnote-live-done').click();
+    return true;
+  };
+  // liveEnded: the controls are gone and the cell shows the end line.
+  bn.liveEnded = (index) => {
+    const c = cells()[index];
+    if (!c) return '';
+    const e = c.el.querySelector('.beamnote-live-ended');
+    return !c.el.querySelector('.beamnote-live') && e ? e.textContent : '';
+  };
   bn.notebook = () => (bn.ui() === 'notebook6' ? Jupyter.notebook.toJSON() : lab().content.model.toJSON());
   // The element that scrolls the notebook (the page itself does not).
   bn.scroller = () => {
@@ -413,7 +495,12 @@ async def run(args, res):
         await page.eval("window.__beamnote.runAll()")
         stable = 0
         deadline = t2 + args.run_timeout
+        exercised = set()
         while True:
+            for lid in await page.eval("window.__beamnote.liveActive()"):
+                if lid not in exercised:
+                    exercised.add(lid)
+                    res["live"].append(await exercise_live(page, lid, args))
             st = await page.eval("window.__beamnote.state()")
             res["kernel"] = st["kernel"]
             if st["events"]:
@@ -445,6 +532,59 @@ async def run(args, res):
         cdp.close()
 
 
+async def exercise_live(page, lid, args):
+    """Move every slider of the live controls lid, then press done.
+
+    Per slider: single moves between positions at a quarter and three
+    quarters of its range and its ends, each timed from the input event to
+    the cell's figure showing the new value (the round trip: page, server,
+    kernel, cell program drawing, and back); then a burst of input events
+    over half the range in one go, as a fast drag sends, which must end at
+    the burst's last value. Then done, and the cell must replace the
+    controls with its end line.
+    """
+    rep = {"id": lid, "cell": await page.eval("window.__beamnote.cellIndex(%s)" % json.dumps(lid)),
+           "sliders": await page.eval("window.__beamnote.liveSliders(%s)" % json.dumps(lid)),
+           "moves": [], "bursts": [], "done": False, "ended": "", "error": ""}
+    timeout_ms = int(args.move_timeout * 1000)
+    for i, sl in enumerate(rep["sliders"]):
+        n = sl["n"]
+        ks = [n // 4, (3 * n) // 4, n // 4 + 1, (3 * n) // 4 - 1, 0, n] * args.live_rounds
+        for k in ks:
+            if k == sl["value"]:
+                continue
+            m = await page.eval("window.__beamnote.liveMove(%s, %d, [%d], %d)" % (json.dumps(lid), i, k, timeout_ms),
+                                timeout=args.move_timeout + 10)
+            m.update(slider=i, to=k)
+            rep["moves"].append(m)
+            sl["value"] = k
+        burst = list(range(0, n // 2 + 1))
+        m = await page.eval("window.__beamnote.liveMove(%s, %d, %s, %d)" % (json.dumps(lid), i, json.dumps(burst), timeout_ms),
+                            timeout=args.move_timeout + 10)
+        m.update(slider=i, moves=len(burst))
+        rep["bursts"].append(m)
+    # What the live controls look like (the first ones of the page), kept
+    # beside the notebook's screenshot.
+    if not args.live_shot_taken:
+        args.live_shot_taken = True
+        await page.eval("document.getElementById(%s).scrollIntoView({block: 'center'})" % json.dumps(lid))
+        shot = await page.send("Page.captureScreenshot", {"format": "png"}, timeout=60)
+        path = args.screenshot[:-4] + "-live.png" if args.screenshot.endswith(".png") else args.screenshot + "-live.png"
+        with open(path, "wb") as f:
+            f.write(base64.b64decode(shot["data"]))
+        rep["screenshot"] = path
+    rep["done"] = await page.eval("window.__beamnote.liveDone(%s)" % json.dumps(lid))
+
+    async def ended():
+        return await page.eval("window.__beamnote.liveEnded(%d)" % rep["cell"])
+
+    try:
+        rep["ended"] = await poll("the live cell's end after done", args.move_timeout, ended, interval=0.1)
+    except DriverError as e:
+        rep["error"] = str(e)
+    return rep
+
+
 async def screenshot(page, path, res):
     """Make the window as tall as the notebook, then capture it as PNG."""
     for _ in range(3):  # outputs (MathJax, images) may still change the height
@@ -472,8 +612,11 @@ def main():
     ap.add_argument("--figure-text", default="", help="text that marks the figure looked for in each <svg>")
     ap.add_argument("--kernel-timeout", type=float, default=120, help="seconds for the page and kernel to be ready")
     ap.add_argument("--run-timeout", type=float, default=300, help="seconds for Run All to finish")
+    ap.add_argument("--move-timeout", type=float, default=10, help="seconds for a slider move to show its figure")
+    ap.add_argument("--live-rounds", type=int, default=2, help="rounds of single moves per slider of a live what-if")
     args = ap.parse_args()
-    res = {"error": "", "ui": "", "kernel": {}, "seconds": {}, "cells": [], "notebook": None,
+    args.live_shot_taken = False
+    res = {"error": "", "ui": "", "kernel": {}, "seconds": {}, "cells": [], "notebook": None, "live": [],
            "exceptions": [], "console": [], "warnings": [], "screenshot": None}
     try:
         asyncio.run(run(args, res))

@@ -37,3 +37,19 @@ func ExampleSVG() {
 	// Output:
 	// [figure: empty frame (67 bytes of SVG)]
 }
+
+// Outside a notebook a progress bar prints a line at each quarter; in a
+// notebook it is one bar, redrawn in place.
+func ExampleProgress() {
+	bar := nb.NewProgress("Monte Carlo builds")
+	for done := 0; done <= 1000; done += 100 {
+		bar.Update(done, 1000) // as tolerance.Options.Progress is called
+	}
+	bar.Done()
+	// Output:
+	// Monte Carlo builds: 0 % (0 of 1000)
+	// Monte Carlo builds: 30 % (300 of 1000)
+	// Monte Carlo builds: 50 % (500 of 1000)
+	// Monte Carlo builds: 80 % (800 of 1000)
+	// Monte Carlo builds: 100 % (1000 of 1000)
+}

@@ -28,6 +28,9 @@ func TestNotebooksUseOneIdiom(t *testing.T) {
 		{regexp.MustCompile(`if err != nil`), "hand-written error check in a cell body: use nb.Must, nb.Check or nb.Show(v, err)", true},
 		{regexp.MustCompile(`fmt\.Print(ln|f)?\("error`), "print-and-return: use nb.Must or nb.Check", false},
 		{regexp.MustCompile(`gonum\.org/v1/plot`), "plotting-library code in a cell: use optplot", false},
+		// gonbui opens the pipes that nb uses; its widgets wait for a
+		// browser for ever and hang a headless run.
+		{regexp.MustCompile(`janpfeifer/gonb/gonbui`), "gonbui in a cell: use nb (display) and nb/live (sliders)", false},
 	}
 	for _, f := range files {
 		b, err := os.ReadFile(f)

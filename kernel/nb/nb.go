@@ -16,11 +16,24 @@
 // front-ends prefer the HTML copy; nbconvert's HTML export keeps it too; the
 // image/svg+xml copy is what tools that extract figures look for.
 //
-// # Headless runs
+// # Output in place, progress, interrupts
+//
+// A [Display] is one output area that each call replaces (Jupyter's
+// display_id, gonb's UpdateHTML): the last content stays in the notebook.
+// [Progress] is a progress bar drawn in one, whose Update method is a
+// progress callback (opticslib/tolerance's Options.Progress), throttled
+// to ten drawings a second. [Context] is cancelled when the notebook
+// interrupts the cell (gonb sends the program SIGINT), for long
+// computations to stop early.
+//
+// # Headless runs and live controls
 //
 // [Headless] reports whether the notebook runs without a browser
 // (BEAMNOTE_HEADLESS=1, set by `make test`). Interactive widgets wait for a
-// browser that never comes, so code that uses them must check it first.
+// browser that never comes, so code that uses them must check it first;
+// package nb/live (sliders that redraw a figure) does, and falls back to
+// fixed figures. [Listen] receives the values the page sends through
+// gonb's comms, the channel under such controls.
 package nb
 
 import (
@@ -58,7 +71,10 @@ func Headless() bool { return os.Getenv("BEAMNOTE_HEADLESS") == "1" }
 // fallback and as the figure's accessible title). Outside a notebook it
 // prints "[figure: caption (N bytes of SVG)]"; if BEAMNOTE_FIGURE_DIR is set
 // it also writes the SVG there under a name made from the caption.
-func SVG(svg []byte, caption string) error {
+func SVG(svg []byte, caption string) error { return svgIn("", svg, caption) }
+
+// svgIn is SVG into the display area id ("" for a new output).
+func svgIn(id string, svg []byte, caption string) error {
 	if len(bytes.TrimSpace(svg)) == 0 {
 		return fmt.Errorf("nb: figure %q: empty SVG", caption)
 	}
@@ -73,7 +89,7 @@ func SVG(svg []byte, caption string) error {
 		}
 		return nil
 	}
-	return send(map[protocol.MIMEType]any{
+	return sendIn(id, map[protocol.MIMEType]any{
 		protocol.MIMEImageSVG:  string(svg),
 		protocol.MIMETextHTML:  figureHTML(svg, caption),
 		protocol.MIMETextPlain: "[figure: " + caption + "]",
@@ -89,8 +105,10 @@ func SaveSVG(path string, svg []byte) error {
 }
 
 // Markdown shows Markdown text; outside a notebook it prints it as is.
-func Markdown(md string) error {
-	return show(map[protocol.MIMEType]any{
+func Markdown(md string) error { return markdownIn("", md) }
+
+func markdownIn(id, md string) error {
+	return show(id, map[protocol.MIMEType]any{
 		protocol.MIMETextMarkdown: md,
 		protocol.MIMETextPlain:    md,
 	}, md)
@@ -98,25 +116,34 @@ func Markdown(md string) error {
 
 // HTML shows an HTML fragment with a plain-text alternative for
 // front-ends and terminals that cannot render it.
-func HTML(fragment, plain string) error {
-	return show(map[protocol.MIMEType]any{
+func HTML(fragment, plain string) error { return htmlIn("", fragment, plain) }
+
+func htmlIn(id, fragment, plain string) error {
+	return show(id, map[protocol.MIMEType]any{
 		protocol.MIMETextHTML:  fragment,
 		protocol.MIMETextPlain: plain,
 	}, plain)
 }
 
-// show sends one display bundle in a notebook, or prints plain outside.
-func show(data map[protocol.MIMEType]any, plain string) error {
+// show sends one display bundle in a notebook, into the display area id
+// ("" for a new output), or prints plain outside.
+func show(id string, data map[protocol.MIMEType]any, plain string) error {
 	if !InNotebook() {
 		fmt.Fprintln(out(), strings.TrimRight(plain, "\n"))
 		return nil
 	}
-	return send(data)
+	return sendIn(id, data)
 }
 
-// send sends one display bundle to gonb and waits until gonb has taken it.
-func send(data map[protocol.MIMEType]any) error {
-	if err := kernel.display(&protocol.DisplayData{Data: data}); err != nil {
+// send sends one display bundle to gonb as a new output and waits until
+// gonb has taken it.
+func send(data map[protocol.MIMEType]any) error { return sendIn("", data) }
+
+// sendIn sends one display bundle into the display area id (gonb sends
+// display_data the first time it sees an id, update_display_data after;
+// "" is a new output every time) and waits until gonb has taken it.
+func sendIn(id string, data map[protocol.MIMEType]any) error {
+	if err := kernel.display(&protocol.DisplayData{Data: data, DisplayID: id}); err != nil {
 		return fmt.Errorf("nb: sending output to the notebook: %w", err)
 	}
 	return nil

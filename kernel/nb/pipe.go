@@ -29,11 +29,13 @@ import (
 // plotting cell's link about a third slower. The bytes on the pipes are the
 // same as gonbui's (TestWireFormatMatchesGonbui).
 //
-// One difference: gonbui reads the back pipe in a goroutine and hands
-// widget updates to gonbui/comms; this package reads it only while it
-// waits for a sync acknowledgement and drops anything else. A cell
-// program should therefore not mix this package with gonbui's own display
-// or widget calls: both would open the same pipes.
+// Like gonbui, the package reads the back pipe in a goroutine of its own
+// once the pipes are open: sync acknowledgements go to the display call
+// that waits for them, values the page sends to an address go to the
+// function that [Listen] registered for it (gonbui hands them to
+// gonbui/comms), anything else is dropped. A cell program should not mix
+// this package with gonbui's own display or widget calls: both would open
+// the same pipes.
 
 // inNotebook is whether the program runs as a gonb cell: gonb sets
 // $GONB_PIPE (gonbui.IsNotebook is the same test).
@@ -45,9 +47,35 @@ type pipe struct {
 	w        io.WriteCloser // $GONB_PIPE
 	enc      *gob.Encoder
 	r        io.ReadCloser // $GONB_PIPE_BACK
-	dec      *gob.Decoder
+	back     *backReader   // reads r, from the open on
 	nextSync int
 	err      error // sticky, as gonbui's
+}
+
+// backReader reads the gob stream of $GONB_PIPE_BACK in a goroutine of its
+// own: sync acknowledgements go to acks (one sync waits at a time, under
+// pipe.mu), values for an address to its listener; when the stream ends,
+// err is set and done closed.
+type backReader struct {
+	acks chan any
+	done chan struct{}
+	err  error // valid once done is closed
+}
+
+func (b *backReader) read(dec *gob.Decoder) {
+	for {
+		var v protocol.CommValue
+		if err := dec.Decode(&v); err != nil {
+			b.err = err
+			close(b.done)
+			return
+		}
+		if v.Address == protocol.GonbuiSyncAckAddress {
+			b.acks <- v.Value
+			continue
+		}
+		deliver(v.Address, v.Value)
+	}
 }
 
 var kernel pipe
@@ -78,7 +106,9 @@ func (p *pipe) openLocked() error {
 		return p.err
 	}
 	p.w, p.r = w, r
-	p.enc, p.dec = gob.NewEncoder(w), gob.NewDecoder(r)
+	p.enc = gob.NewEncoder(w)
+	p.back = &backReader{acks: make(chan any, 1), done: make(chan struct{})}
+	go p.back.read(gob.NewDecoder(r))
 	return nil
 }
 
@@ -117,6 +147,13 @@ func (p *pipe) display(d *protocol.DisplayData) error {
 	return p.syncLocked()
 }
 
+// post sends one message without waiting for gonb (a subscription).
+func (p *pipe) post(d *protocol.DisplayData) error {
+	p.mu.Lock()
+	defer p.mu.Unlock()
+	return p.sendLocked(d)
+}
+
 // syncLocked is gonbui.Sync's handshake.
 func (p *pipe) syncLocked() error {
 	id := p.nextSync
@@ -127,19 +164,25 @@ func (p *pipe) syncLocked() error {
 	if err != nil {
 		return err
 	}
-	for {
-		var v protocol.CommValue
-		if err := p.dec.Decode(&v); err != nil {
-			return p.fail(fmt.Errorf("reading gonb's acknowledgement of sync %d: %w", id, err))
+	select {
+	case v := <-p.back.acks:
+		return p.ackLocked(v, id)
+	case <-p.back.done:
+		select {
+		case v := <-p.back.acks: // the acknowledgement came before the end
+			return p.ackLocked(v, id)
+		default:
 		}
-		if v.Address != protocol.GonbuiSyncAckAddress {
-			continue // a front-end value for widgets, which this package has none of
-		}
-		if got, ok := v.Value.(int); ok && got == id {
-			return nil
-		}
-		// An acknowledgement of an older sync cannot come (each waits for
-		// its own); anything else means the stream is out of step.
-		return p.fail(fmt.Errorf("gonb acknowledged sync %v, want %d", v.Value, id))
+		return p.fail(fmt.Errorf("reading gonb's acknowledgement of sync %d: %w", id, p.back.err))
 	}
+}
+
+// ackLocked checks the acknowledgement v of sync id. An acknowledgement of
+// an older sync cannot come (each waits for its own); anything else means
+// the stream is out of step.
+func (p *pipe) ackLocked(v any, id int) error {
+	if got, ok := v.(int); ok && got == id {
+		return nil
+	}
+	return p.fail(fmt.Errorf("gonb acknowledged sync %v, want %d", v, id))
 }

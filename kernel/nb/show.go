@@ -91,21 +91,23 @@ func Show(v any, errs ...error) {
 	if err, ok := v.(error); ok && err != nil {
 		fail(err, 2) // nb.Show(err): an error is never shown as a result
 	}
-	if err := show1(v); err != nil {
+	if err := show1("", v); err != nil {
 		fail(err, 2)
 	}
 }
 
-func show1(v any) error {
+// show1 shows v, as Show describes, into the display area id ("" for a
+// new output).
+func show1(id string, v any) error {
 	switch x := v.(type) {
 	case target.Target:
-		return Target(x)
+		return targetIn(id, x)
 	case []target.Target:
-		return Target(x...)
+		return targetIn(id, x...)
 	case table.Table:
-		return Table(x)
+		return tableIn(id, x)
 	case Tabler:
-		return Table(x.Table())
+		return tableIn(id, x.Table())
 	case SVGer:
 		svg, err := x.SVG()
 		if err != nil {
@@ -115,19 +117,19 @@ func show1(v any) error {
 		if s, ok := v.(fmt.Stringer); ok && s.String() != "" {
 			caption = s.String()
 		}
-		return SVG(svg, caption)
+		return svgIn(id, svg, caption)
 	case string:
-		return Markdown(x)
+		return markdownIn(id, x)
 	case fmt.Stringer:
-		return preformatted(x.String())
+		return preformatted(id, x.String())
 	}
-	return preformatted(fmt.Sprintf("%+v", v))
+	return preformatted(id, fmt.Sprintf("%+v", v))
 }
 
 // preformatted shows plain text as it is, in a <pre> block that wraps
 // long lines at spaces (Notebook 6 breaks output lines inside words).
-func preformatted(s string) error {
-	return HTML(`<pre style="white-space:pre-wrap;word-break:normal;overflow-wrap:break-word">`+html.EscapeString(s)+"</pre>", s)
+func preformatted(id, s string) error {
+	return htmlIn(id, `<pre style="white-space:pre-wrap;word-break:normal;overflow-wrap:break-word">`+html.EscapeString(s)+"</pre>", s)
 }
 
 // fail prints err with the source line of the caller skip frames up and

@@ -13,11 +13,13 @@ import (
 // header is an error ([table.Table.Validate]).
 //
 //	nb.Table(sys.Table())
-func Table(t table.Table) error {
+func Table(t table.Table) error { return tableIn("", t) }
+
+func tableIn(id string, t table.Table) error {
 	if err := t.Validate(); err != nil {
 		return err
 	}
-	return HTML(tableHTML(t), t.Text())
+	return htmlIn(id, tableHTML(t), t.Text())
 }
 
 // tableHTML renders t as an HTML table fragment with every cell escaped;

@@ -20,7 +20,9 @@ const MIMETarget protocol.MIMEType = "application/vnd.beamnote.target+json"
 // or missed and by how much) recorded under [MIMETarget]; outside one
 // text line each. Show calls it for a target.Target or a []target.Target.
 // A missed target does not stop the cell: the re-run reports it.
-func Target(ts ...target.Target) error {
+func Target(ts ...target.Target) error { return targetIn("", ts...) }
+
+func targetIn(id string, ts ...target.Target) error {
 	var marks, plain strings.Builder
 	records := make([]string, len(ts))
 	for i, t := range ts {
@@ -28,7 +30,7 @@ func Target(ts ...target.Target) error {
 		plain.WriteString(t.String() + "\n")
 		records[i] = t.RecordLine()
 	}
-	return show(map[protocol.MIMEType]any{
+	return show(id, map[protocol.MIMEType]any{
 		protocol.MIMETextHTML:  marks.String(),
 		protocol.MIMETextPlain: plain.String(),
 		MIMETarget:             records,
