@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"github.com/beamnote/beamnote/opticslib/internal/errtext"
+	"github.com/beamnote/beamnote/opticslib/internal/unitcsv"
 	"github.com/beamnote/beamnote/opticslib/units"
 )
 
@@ -94,7 +95,7 @@ func ReadColumns(r io.Reader, source string) (Columns, error) {
 	}
 	data = bytes.TrimPrefix(data, []byte("\uFEFF"))
 	cr := csv.NewReader(bytes.NewReader(data))
-	cr.Comma = columnsSeparator(data)
+	cr.Comma = unitcsv.Separator(data)
 	cr.Comment = '#'
 	cr.FieldsPerRecord = -1
 	cr.TrimLeadingSpace = true
@@ -143,7 +144,7 @@ func ReadColumns(r io.Reader, source string) (Columns, error) {
 		if err != nil {
 			return Columns{}, err
 		}
-		if columnsAllEmpty(rec) {
+		if unitcsv.AllEmpty(rec) {
 			continue
 		}
 		for len(rec) > len(c.Names) && strings.TrimSpace(rec[len(rec)-1]) == "" {
@@ -162,35 +163,6 @@ func ReadColumns(r io.Reader, source string) (Columns, error) {
 	return c, nil
 }
 
-// columnsSeparator returns the separator of the header line of data: the
-// most frequent of ',', ';' and '\t' on the first line that is neither
-// blank nor a comment (',' when there is none, and on ties).
-func columnsSeparator(data []byte) rune {
-	for line := range bytes.Lines(data) {
-		l := bytes.TrimSpace(line)
-		if len(l) == 0 || l[0] == '#' {
-			continue
-		}
-		best, n := ',', bytes.Count(line, []byte{','})
-		for _, sep := range []rune{';', '\t'} {
-			if k := bytes.Count(line, []byte(string(sep))); k > n {
-				best, n = sep, k
-			}
-		}
-		return best
-	}
-	return ','
-}
-
-func columnsAllEmpty(rec []string) bool {
-	for _, s := range rec {
-		if strings.TrimSpace(s) != "" {
-			return false
-		}
-	}
-	return true
-}
-
 // Len returns the number of data rows.
 func (c Columns) Len() int { return len(c.cells) }
 
@@ -207,36 +179,11 @@ func (c Columns) where() string {
 
 func (c Columns) whereLine(line int) string { return c.where() + " line " + strconv.Itoa(line) }
 
-// columnsSplit returns the unit of column name for quantity q, and
-// whether name is a column of q: name is q itself (no unit), q_unit with
-// no further underscore in unit, q (unit) or q [unit].
-func columnsSplit(name, q string) (unit string, ok bool) {
-	if strings.EqualFold(name, q) {
-		return "", true
-	}
-	if len(name) <= len(q) || !strings.EqualFold(name[:len(q)], q) {
-		return "", false
-	}
-	rest := name[len(q):]
-	if rest[0] == '_' {
-		u := rest[1:]
-		return u, u != "" && !strings.ContainsAny(u, "_ ([")
-	}
-	rest = strings.TrimSpace(rest)
-	for _, br := range []string{"()", "[]"} {
-		if len(rest) >= 2 && rest[0] == br[0] && rest[len(rest)-1] == br[1] {
-			u := strings.TrimSpace(rest[1 : len(rest)-1])
-			return u, u != ""
-		}
-	}
-	return "", false
-}
-
 // Has reports whether the table has a column of quantity q (with any
 // unit or none).
 func (c Columns) Has(q string) bool {
 	for _, n := range c.Names {
-		if _, ok := columnsSplit(n, q); ok {
+		if _, ok := unitcsv.Split(n, q); ok {
 			return true
 		}
 	}
@@ -249,7 +196,7 @@ func (c Columns) Has(q string) bool {
 func (c Columns) Column(q string) (Column, error) {
 	col, found := Column{Index: -1}, ""
 	for j, n := range c.Names {
-		u, ok := columnsSplit(n, q)
+		u, ok := unitcsv.Split(n, q)
 		if !ok {
 			continue
 		}
@@ -299,25 +246,6 @@ func (c Columns) Numbers(q string) ([]float64, Column, error) {
 	return out, col, nil
 }
 
-// columnsLengthUnits are the length units of column names, by lower-case
-// symbol, as the number of units per metre (an exact integer, so that a
-// division converts with one rounding: "150" mm is exactly 0.15 m) or, for
-// the inch, minus the metres per unit.
-var columnsLengthUnits = map[string]float64{
-	"nm": 1e9, "um": 1e6, "µm": 1e6, "μm": 1e6, "mm": 1e3, "cm": 1e2, "m": 1, "in": -0.0254,
-}
-
-// columnsAngleUnits are the angle units of column names, in radians per
-// unit.
-var columnsAngleUnits = map[string]float64{
-	"rad": 1, "mrad": 1e-3, "urad": 1e-6, "µrad": 1e-6, "μrad": 1e-6, "deg": math.Pi / 180, "°": math.Pi / 180,
-}
-
-const (
-	columnsLengthList = "nm, um (µm), mm, cm, m or in"
-	columnsAngleList  = "rad, mrad, urad (µrad) or deg"
-)
-
 // Lengths returns the column of quantity q in metres. Besides the errors
 // of [Columns.Numbers] it returns a [*ParamError] wrapping [ErrInput] when
 // the column has no unit, an angle unit ("z_deg"), or a unit that is not
@@ -327,9 +255,9 @@ func (c Columns) Lengths(q string) ([]units.Length, error) {
 	if err != nil {
 		return nil, err
 	}
-	k, ok := columnsLengthUnits[strings.ToLower(col.Unit)]
+	toMetres, ok := unitcsv.Metres(col.Unit)
 	if !ok {
-		return nil, c.unitError(col, "a length", columnsLengthList)
+		return nil, c.unitError(col, "a length", unitcsv.LengthList)
 	}
 	vs, _, err := c.Numbers(q)
 	if err != nil {
@@ -337,11 +265,7 @@ func (c Columns) Lengths(q string) ([]units.Length, error) {
 	}
 	out := make([]units.Length, len(vs))
 	for i, v := range vs {
-		if k < 0 {
-			out[i] = units.Length(v * -k)
-		} else {
-			out[i] = units.Length(v / k)
-		}
+		out[i] = units.Length(toMetres(v))
 		if math.IsInf(float64(out[i]), 0) {
 			return nil, &ParamError{Where: c.Where(i), Param: "column " + col.Name, Value: v, Reason: "overflows in metres", Err: ErrNotPhysical}
 		}
@@ -358,9 +282,9 @@ func (c Columns) Angles(q string) ([]units.Angle, error) {
 	if err != nil {
 		return nil, err
 	}
-	k, ok := columnsAngleUnits[strings.ToLower(col.Unit)]
+	k, ok := unitcsv.Radians(col.Unit)
 	if !ok {
-		return nil, c.unitError(col, "an angle", columnsAngleList)
+		return nil, c.unitError(col, "an angle", unitcsv.AngleList)
 	}
 	vs, _, err := c.Numbers(q)
 	if err != nil {
@@ -375,14 +299,15 @@ func (c Columns) Angles(q string) ([]units.Angle, error) {
 
 // unitError explains why col's unit does not fit a quantity of kind what.
 func (c Columns) unitError(col Column, what, list string) error {
-	u := strings.ToLower(col.Unit)
 	var reason string
-	switch _, isLen := columnsLengthUnits[u]; {
+	_, isLen := unitcsv.Metres(col.Unit)
+	_, isAngle := unitcsv.Radians(col.Unit)
+	switch {
 	case col.Unit == "":
 		reason = "has no unit; " + col.Quantity + " is " + what + ": name the column " + col.Quantity + "_<unit> with <unit> one of " + list
 	case isLen:
 		reason = col.Unit + " is a length unit, but " + col.Quantity + " is " + what + " (" + list + ")"
-	case columnsAngleUnits[u] != 0:
+	case isAngle:
 		reason = col.Unit + " is an angle unit, but " + col.Quantity + " is " + what + " (" + list + ")"
 	default:
 		reason = "unit " + strconv.Quote(col.Unit) + " is not understood; " + col.Quantity + " is " + what + " (" + list + ")"

@@ -13,6 +13,7 @@ import (
 	"strings"
 
 	"github.com/beamnote/beamnote/opticslib/internal/errtext"
+	"github.com/beamnote/beamnote/opticslib/internal/unitcsv"
 	"github.com/beamnote/beamnote/opticslib/paraxial"
 	"github.com/beamnote/beamnote/opticslib/units"
 )
@@ -140,7 +141,7 @@ func Read(r io.Reader, source string) (Stock, error) {
 	// parse numbers only; a stock file also holds text and empty cells.
 	data = bytes.TrimPrefix(data, []byte("\uFEFF"))
 	cr := csv.NewReader(bytes.NewReader(data))
-	cr.Comma = separator(data)
+	cr.Comma = unitcsv.Separator(data)
 	cr.Comment = '#'
 	cr.FieldsPerRecord = -1
 	cr.TrimLeadingSpace = true
@@ -181,7 +182,7 @@ func Read(r io.Reader, source string) (Stock, error) {
 		if err != nil {
 			return Stock{}, err
 		}
-		if allEmpty(rec) {
+		if unitcsv.AllEmpty(rec) {
 			continue
 		}
 		for len(rec) > len(header) && strings.TrimSpace(rec[len(rec)-1]) == "" {
@@ -225,76 +226,14 @@ func ReadFile(path string) (Stock, error) {
 	return Read(f, filepath.Base(path))
 }
 
-// separator returns the most frequent of ',', ';' and '\t' on the first
-// line of data that is neither blank nor a comment (',' on ties and when
-// there is none); as measure.ReadColumns chooses.
-func separator(data []byte) rune {
-	for line := range bytes.Lines(data) {
-		l := bytes.TrimSpace(line)
-		if len(l) == 0 || l[0] == '#' {
-			continue
-		}
-		best, n := ',', bytes.Count(line, []byte{','})
-		for _, sep := range []rune{';', '\t'} {
-			if k := bytes.Count(line, []byte(string(sep))); k > n {
-				best, n = sep, k
-			}
-		}
-		return best
-	}
-	return ','
-}
-
-func allEmpty(rec []string) bool {
-	for _, s := range rec {
-		if strings.TrimSpace(s) != "" {
-			return false
-		}
-	}
-	return true
-}
-
-// splitName returns the unit of column name for quantity q and whether
-// name is a column of q: q itself, q_unit, q (unit) or q [unit]; the rule
-// of measure.ReadColumns.
-func splitName(name, q string) (unit string, ok bool) {
-	if strings.EqualFold(name, q) {
-		return "", true
-	}
-	if len(name) <= len(q) || !strings.EqualFold(name[:len(q)], q) {
-		return "", false
-	}
-	rest := name[len(q):]
-	if rest[0] == '_' {
-		u := rest[1:]
-		return u, u != "" && !strings.ContainsAny(u, "_ ([")
-	}
-	rest = strings.TrimSpace(rest)
-	for _, br := range []string{"()", "[]"} {
-		if len(rest) >= 2 && rest[0] == br[0] && rest[len(rest)-1] == br[1] {
-			u := strings.TrimSpace(rest[1 : len(rest)-1])
-			return u, u != ""
-		}
-	}
-	return "", false
-}
-
-// lengthUnits are the length units of column names in metres per unit
-// (the set measure.ReadColumns accepts).
-var lengthUnits = map[string]float64{
-	"nm": 1e-9, "um": 1e-6, "µm": 1e-6, "μm": 1e-6, "mm": 1e-3, "cm": 1e-2, "m": 1, "in": 0.0254,
-}
-
-const lengthList = "nm, um (µm), mm, cm, m or in"
-
 // header is a parsed stock header: the cell index of each column (−1 when
 // absent), the metres per unit of each length column, and the names used
 // in messages.
 type header struct {
-	index [numColumns]int
-	scale [numColumns]float64
-	names fieldNames
-	name  [numColumns]string
+	index    [numColumns]int
+	toMetres [numColumns]func(float64) float64
+	names    fieldNames
+	name     [numColumns]string
 }
 
 func parseHeader(cells []string, where string) (header, error) {
@@ -309,7 +248,7 @@ func parseHeader(cells []string, where string) (header, error) {
 		}
 		found := false
 		for c, def := range columns {
-			u, ok := splitName(name, def.quantity)
+			u, ok := unitcsv.Split(name, def.quantity)
 			if !ok {
 				continue
 			}
@@ -319,13 +258,13 @@ func parseHeader(cells []string, where string) (header, error) {
 			}
 			switch {
 			case def.length && u == "":
-				return header{}, &ParamError{Where: where, Param: "column " + name, Reason: "has no unit; it is a length: name it " + def.quantity + "_<unit> with <unit> one of " + lengthList, Err: ErrInput}
+				return header{}, &ParamError{Where: where, Param: "column " + name, Reason: "has no unit; it is a length: name it " + def.quantity + "_<unit> with <unit> one of " + unitcsv.LengthList, Err: ErrInput}
 			case def.length:
-				k, ok := lengthUnits[strings.ToLower(u)]
+				k, ok := unitcsv.Metres(u)
 				if !ok {
-					return header{}, &ParamError{Where: where, Param: "column " + name, Reason: "unit " + strconv.Quote(u) + " is not a length unit (" + lengthList + ")", Err: ErrInput}
+					return header{}, &ParamError{Where: where, Param: "column " + name, Reason: "unit " + strconv.Quote(u) + " is not a length unit (" + unitcsv.LengthList + ")", Err: ErrInput}
 				}
-				h.scale[c] = k
+				h.toMetres[c] = k
 			case u != "":
 				return header{}, &ParamError{Where: where, Param: "column " + name, Reason: def.quantity + " has no unit; name the column " + def.quantity, Err: ErrInput}
 			}
@@ -402,7 +341,10 @@ func (h header) lens(rec []string, where string) (Lens, error) {
 			}
 		}
 		v, err := number(c)
-		return units.Length(v * h.scale[c]), err
+		if err != nil || h.toMetres[c] == nil { // an absent column reads as 0
+			return 0, err
+		}
+		return units.Length(h.toMetres[c](v)), nil
 	}
 	var s Spec
 	var err error
