@@ -15,7 +15,7 @@ import (
 // beam).
 func WaistRadius(in beam.Input) Measure[units.Length] {
 	return func(sys paraxial.System) (units.Length, error) {
-		w, err := lastWaist(sys, in)
+		w, err := LastWaist(sys, in)
 		return w.Radius, err
 	}
 }
@@ -24,7 +24,7 @@ func WaistRadius(in beam.Input) Measure[units.Length] {
 // plane, along the unfolded axis; it may lie beyond the system's end).
 func WaistZ(in beam.Input) Measure[units.Length] {
 	return func(sys paraxial.System) (units.Length, error) {
-		w, err := lastWaist(sys, in)
+		w, err := LastWaist(sys, in)
 		return w.Z, err
 	}
 }
@@ -43,12 +43,16 @@ func WaistAfter(in beam.Input, label string) Measure[units.Length] {
 		if err != nil {
 			return 0, err
 		}
-		w, err := lastWaist(sys, in)
+		w, err := LastWaist(sys, in)
 		return w.Z - p.End, err
 	}
 }
 
-func lastWaist(sys paraxial.System, in beam.Input) (beam.Waist, error) {
+// LastWaist returns the last waist of the beam in through sys (the output
+// beam's, [beam.Waists]), and an error for a system with no element after
+// which to take one, where [beam.WaistList.Last] would give the zero
+// Waist.
+func LastWaist(sys paraxial.System, in beam.Input) (beam.Waist, error) {
 	ws, err := beam.Waists(sys, in)
 	if err != nil {
 		return beam.Waist{}, err

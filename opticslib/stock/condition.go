@@ -218,11 +218,10 @@ func CollimationOffset(in beam.Input, label string) design.Measure[float64] {
 		if p.First != p.Last || e.Kind != paraxial.KindThinLens {
 			return 0, &ParamError{Where: "collimation offset", Param: "label", Value: errtext.Quote(label), Reason: "is not a thin lens", Err: ErrInput}
 		}
-		ws, err := beam.Waists(sys, in)
+		w, err := design.LastWaist(sys, in)
 		if err != nil {
 			return 0, err
 		}
-		w := ws.Last()
 		return float64(w.Z-p.End-e.Focal) / float64(w.RayleighRange), nil
 	}
 }
