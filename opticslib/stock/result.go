@@ -56,7 +56,8 @@ type Candidate struct {
 	// Seidel is Σ S_I of third-order spherical aberration at the
 	// marginal heights 1.5 w ([SphericalSeidel], metres) and RMS the RMS
 	// wavefront error it means, best focus, in waves of the beam's vacuum
-	// wavelength ([SphericalRMS]).
+	// wavelength ([SphericalRMS]); with Search.Aberration = [RealRays],
+	// RMS is the real-ray estimate instead (Seidel stays third order).
 	Seidel units.Length
 	RMS    float64
 	// Score is the ranking score with its terms.

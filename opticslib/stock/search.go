@@ -161,6 +161,12 @@ type Search struct {
 	// Keep is the number of ranked candidates kept (0 means
 	// [DefaultKeep]).
 	Keep int
+	// Aberration is the aberration model of the score and of the lenses'
+	// orientation: [ThirdOrder] (the zero value) or [RealRays], which
+	// traces each candidate that meets the goals through its thick
+	// lenses with real rays (see [RealRays]) and is
+	// slower, some 10–100 µs per candidate and orientation.
+	Aberration Aberration
 }
 
 // config is a validated search with its defaults filled in.
@@ -184,6 +190,9 @@ func searchError(param string, v any, reason string, err error) error {
 
 func (s Search) config(st Stock) (config, error) {
 	c := config{Search: s, lmax: math.Inf(1)}
+	if s.Aberration != ThirdOrder && s.Aberration != RealRays {
+		return config{}, searchError("Aberration", int(s.Aberration), "must be ThirdOrder or RealRays", ErrInput)
+	}
 	switch s.Lenses {
 	case 2:
 		c.combinations = "pair"
@@ -781,6 +790,13 @@ func (c *config) process(t *tally, seq []int, sols *[]solution) {
 				return c.combo(k) + " (cost " + strconv.FormatFloat(e.Cost, 'g', 3, 64) + "), missing " + missedList(e.Targets)
 			})
 			continue
+		}
+		if c.Aberration == RealRays {
+			if err := c.realOrient(&cand, seq, gaps, qx[0]); err != nil {
+				t.rejected[rejNotComputable]++
+				t.errText.offer(0, k, func() string { return c.combo(k) + ": real rays: " + oneLine(err) })
+				continue
+			}
 		}
 		t.met++
 		c.finish(&cand, &ch, seq, gaps, length, p, e)
