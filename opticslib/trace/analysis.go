@@ -22,8 +22,9 @@ type Source struct {
 	// the meridional (y–z) plane, for an object at infinity.
 	Field units.Angle
 	// ObjectDistance is the distance in metres from the object point to
-	// vertex 0 (the object lies at z = −ObjectDistance); zero means an
-	// object at infinity.
+	// vertex 0 (the object lies at z = Vertex(0) − ObjectDistance, that
+	// is −ObjectDistance for a system from [New]); zero means an object
+	// at infinity.
 	ObjectDistance units.Length
 	// ObjectHeight is the object point's height in y, in metres, for a
 	// finite object.
@@ -31,8 +32,10 @@ type Source struct {
 	// PupilRadius is the radius in metres of the entrance pupil (for a
 	// collimated beam, the radius of the beam that is traced).
 	PupilRadius units.Length
-	// PupilZ is the z of the entrance pupil plane in metres (zero: the
-	// plane of vertex 0).
+	// PupilZ is the z of the entrance pupil plane in metres in the fixed
+	// frame (zero: z = 0, the plane of vertex 0 for a system from [New]).
+	// It may lie after vertex 0 (a virtual entrance pupil): the rays are
+	// aimed at it.
 	PupilZ units.Length
 	// GaussianRadius is the 1/e² intensity radius in metres of a Gaussian
 	// beam filling the pupil; zero means uniform illumination. It weights
@@ -83,6 +86,10 @@ type Focus struct {
 	// Paraxial is the z in metres of the paraxial focus (the image of
 	// the source by the paraxial trace), for comparison.
 	Paraxial units.Length
+	// Wavelength is the vacuum wavelength.
+	Wavelength units.Length
+	// Airy is the Airy radius (as in [Spot]) at the least-RMS plane.
+	Airy units.Length
 }
 
 // Fan is a transverse ray-aberration curve: the crossing of rays from one
@@ -129,6 +136,18 @@ type FocalShift struct {
 	// Shift is each wavelength's paraxial focus z minus the reference
 	// one, metres.
 	Shift []float64
+	// PupilRadius is the radius in metres of the axial collimated beam
+	// whose rim ray gives Marginal.
+	PupilRadius units.Length
+	// Marginal is each wavelength's axis crossing of the exact rim ray
+	// (height PupilRadius) minus the reference paraxial focus, metres:
+	// Shift plus the longitudinal spherical aberration at that
+	// wavelength (spherochromatism); 0 where the rim ray was lost (see
+	// MarginalLost).
+	Marginal []float64
+	// MarginalLost is true for each wavelength whose rim ray did not
+	// reach the image plane.
+	MarginalLost []bool
 }
 
 // SeidelTerms are the five third-order (Seidel) aberration sums of one
@@ -151,6 +170,17 @@ type Seidel struct {
 	Surfaces []SeidelTerms
 	// Sum is the system's sums.
 	Sum SeidelTerms
+	// Lagrange is the Lagrange invariant H = ν(ū h − u h̄) of the paraxial
+	// marginal (h, u) and chief (h̄, ū) rays, in metres (ν the signed
+	// index, negative after an odd number of mirrors).
+	Lagrange float64
+	// Petzval is the Petzval sum Σ c Δ(1/ν) in 1/m, so that
+	// S_IV = −H² · Petzval (the field curvature without the field).
+	Petzval float64
+	// ImageIndex is the signed index ν′ of image space and MarginalSlope
+	// the paraxial marginal ray's slope u′ = dy/dz there, which turn the
+	// sums into ray aberrations ([Seidel.LongitudinalSpherical]).
+	ImageIndex, MarginalSlope float64
 }
 
 // Wavefront is the wavefront error of one field point at one wavelength:
@@ -172,6 +202,23 @@ type Wavefront struct {
 	// Reference is the z in metres of the reference sphere's centre (the
 	// image plane analysed).
 	Reference units.Length
+	// CentreX, CentreY are the reference sphere's centre in metres on the
+	// plane: the chief ray's crossing.
+	CentreX, CentreY units.Length
+	// Radius is the reference sphere's radius in metres, signed along
+	// the chief ray (negative: the sphere lies before its centre, a
+	// converging wave), from the centre to the chief ray's point on the
+	// exit pupil plane.
+	Radius units.Length
+	// ExitPupil is the z in metres of the paraxial exit pupil, and
+	// ExitPupilFinite false when it lies at infinity (then the sphere
+	// passes through the chief ray's point on the last vertex plane).
+	ExitPupil       units.Length
+	ExitPupilFinite bool
+	// Lost counts the pupil rays that did not reach the reference
+	// sphere, by status (a ray that reached the image plane but misses
+	// the sphere counts as Missed).
+	Lost [Invalid + 1]int
 }
 
 // Strehl holds the Strehl ratio of a wavefront by three forms.
@@ -210,4 +257,16 @@ type GaussianFocus struct {
 	PeakRatio   float64
 	Radius      units.Length
 	IdealRadius units.Length
+	// Samples is the number of pupil samples across the diameter, and
+	// Padded the size of the transform (Padded × Padded).
+	Samples, Padded int
+	// Dx is the sample spacing in metres of the focal field.
+	Dx units.Length
+	// GaussianRadius is the source's 1/e² pupil radius (0: uniform), and
+	// Sine the paraxial image-space sine per unit of normalised pupil
+	// radius (the marginal ray's |u′|), which set the ideal focus:
+	// w_f = λ0·a/(π n′ Sine w), λ0 f/(π w) for a lens of focal length f
+	// (Kogelnik & Li 1966).
+	GaussianRadius units.Length
+	Sine           float64
 }

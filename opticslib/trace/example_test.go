@@ -16,7 +16,7 @@ func ExampleFromParaxial() {
 	const mm = units.Millimeter
 	p, err := paraxial.NewBuilder().
 		Space(10*mm).
-		ThickLens(51.68*mm, paraxial.Flat, 4*mm, 1.5168).Label("L1").Aperture(paraxial.ClearDiameter(22.86*mm)).
+		ThickLens(51.68*mm, paraxial.Flat, 4*mm, 1.5168).Label("L1").Aperture(paraxial.ClearDiameter(22.86 * mm)).
 		Space(100 * mm).
 		Build()
 	if err != nil {
