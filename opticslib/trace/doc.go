@@ -42,6 +42,32 @@
 // root of the conic's quadratic nearest to it, then Snell's law in vector
 // form. Only the branch of a conic through its vertex is traced.
 //
+// # Analyses
+//
+// A [Source] lights the system: a collimated beam at a field angle, or a
+// point at a finite distance, filling a round entrance pupil uniformly or
+// with a Gaussian profile; [PupilGrid], [PupilHexapolar] and
+// [PupilRandom] sample the pupil. From the rays:
+//
+//   - [System.Spot] and [System.BestFocus]: spot diagrams with RMS and
+//     geometric radii about the centroid, and the plane of least RMS
+//     radius in closed form (the crossings are linear in the plane's
+//     shift);
+//   - [System.RayFans], [System.SphericalAberration] and
+//     [System.ChromaticFocalShift]: transverse ray-aberration curves,
+//     longitudinal spherical aberration against pupil height, and the
+//     paraxial focus against wavelength;
+//   - [System.Seidel]: third-order sums from the paraxial marginal and chief
+//     rays with the conic terms, in the convention of W. T. Welford,
+//     Aberrations of Optical Systems (1986), chapter 8;
+//   - [System.Wavefront]: the optical path difference to a reference sphere
+//     centred on the chief ray's image point, positive where a ray's path is
+//     longer than the chief ray's (the opposite sign of Welford's W, so a
+//     positive S_I gives OPD ≈ −(S_I/8)ρ⁴), and [Wavefront.Strehl] by the
+//     pupil average, Maréchal's and Mahajan's forms;
+//   - [System.GaussianFocus]: the focus of a Gaussian beam through the
+//     aberrated system, by a Fraunhofer transform of the pupil field.
+//
 // # Errors and panics
 //
 // Bad surfaces, media and wavelengths are reported by [*ParamError] values

@@ -4,6 +4,7 @@ import (
 	"math"
 	"testing"
 
+	"github.com/beamnote/beamnote/opticslib/material"
 	"github.com/beamnote/beamnote/opticslib/trace"
 	"github.com/beamnote/beamnote/opticslib/units"
 	"gonum.org/v1/gonum/floats/scalar"
@@ -135,6 +136,51 @@ func TestAplanatic(t *testing.T) {
 		zv := axisCrossing(out) // virtual crossing, behind the surface
 		if got, want := centre-zv, 1.5*R; !scalar.EqualWithinAbs(got, want, 1e-12*R*1e3) {
 			t.Errorf("%v°: virtual point %.15g m from the centre, want nR = %.15g", deg, got, want)
+		}
+	}
+}
+
+// TestCriticalAngleFusedSilica checks reference-checks R38 with Sellmeier
+// indices: inside fused silica (Malitson 1965, J. Opt. Soc. Am. 55, 1205)
+// at 1.55 µm in air, n = 1.444024 relative to air, the critical angle is
+// 43.829°: a ray 0.005° below it leaves the glass and one 0.005° above it
+// ends with TotalReflection (not NaN). The glass and the air are absolute
+// indices in the glass formula's reference air, so their ratio is the
+// catalogue's relative index (material's conventions); 0.005° is far
+// above the 1e-6 uncertainty of the index.
+func TestCriticalAngleFusedSilica(t *testing.T) {
+	silica, err := material.ByName("fused silica")
+	if err != nil {
+		t.Fatal(err)
+	}
+	air, err := material.AirOf(material.ReferenceAir())
+	if err != nil {
+		t.Fatal(err)
+	}
+	vac, err := material.VacuumWavelength(1.55*units.Micrometer, material.ReferenceAir())
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := trace.New(silica, trace.Surface{Label: "exit face", Kind: trace.Refract, Medium: air, Thickness: 10 * mm})
+	if err != nil {
+		t.Fatal(err)
+	}
+	const critical = 43.829
+	for _, test := range []struct {
+		deg  float64
+		want trace.Status
+	}{{critical - 0.005, trace.OK}, {critical + 0.005, trace.TotalReflection}, {60, trace.TotalReflection}} {
+		a := test.deg * math.Pi / 180
+		ray := trace.Ray{Position: r3.Vec{Z: -1e-3}, Direction: r3.Vec{Y: math.Sin(a), Z: math.Cos(a)}}
+		out, st, _, err := s.TraceRay(vac, ray)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if st != test.want {
+			t.Errorf("%.3f°: status %v, want %v", test.deg, st, test.want)
+		}
+		if st == trace.OK && !(out.Direction.Z > 0 && out.Direction.Z < 0.02) {
+			t.Errorf("%.3f°: leaves at N = %v, want grazing", test.deg, out.Direction.Z)
 		}
 	}
 }
