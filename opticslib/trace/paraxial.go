@@ -57,13 +57,17 @@ func FromParaxial(p paraxial.System, media Media) (System, error) {
 	elems := p.Elements()
 	// The medium after element i, from the component or label tables.
 	glassAfter := map[int]Medium{}
+	inPart := map[int]bool{}
 	for _, c := range p.Components() {
+		for i := c.First; i <= c.Last; i++ {
+			inPart[i] = true
+		}
 		if m, ok := media.Glass[c.Label]; ok && c.Label != "" {
 			glassAfter[c.First] = m
 		}
 	}
 	for i, e := range elems {
-		if _, done := glassAfter[i]; done || e.Label == "" {
+		if inPart[i] || e.Label == "" {
 			continue
 		}
 		if m, ok := media.Glass[e.Label]; ok && (e.Kind == paraxial.KindSphericalInterface || e.Kind == paraxial.KindPlanarInterface) {

@@ -79,3 +79,33 @@ func TestFromParaxialMirror(t *testing.T) {
 		t.Errorf("crossing at z = %v m (want 0: f = 100 mm before the mirror at 100 mm), direction %v", got, r.Direction)
 	}
 }
+
+// TestFromParaxialGlass checks that a thick lens's material fills its
+// glass only: the medium after the back surface is the air again, and the
+// lens focuses where the paraxial trace with the material's indices puts
+// it (compared with the same lens given the material's index as a number).
+func TestFromParaxialGlass(t *testing.T) {
+	glass := trace.Index(1.6)
+	for _, flat := range []bool{false, true} {
+		b := paraxial.NewBuilder().Space(20 * mm)
+		if flat {
+			b.ThickLens(paraxial.Flat, -30*mm, 5*mm, 1.5)
+		} else {
+			b.ThickLens(30*mm, paraxial.Flat, 5*mm, 1.5)
+		}
+		p, err := b.Label("L1").Space(60 * mm).Build()
+		if err != nil {
+			t.Fatal(err)
+		}
+		s, err := trace.FromParaxial(p, trace.Media{Glass: map[string]trace.Medium{"L1": glass}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := s.MediumAfter(1).Name(); got != "n = 1" {
+			t.Errorf("flat first %v: medium after the back surface %q, want the air", flat, got)
+		}
+		if got := s.MediumAfter(0).Name(); got != "n = 1.6" {
+			t.Errorf("flat first %v: glass %q, want n = 1.6", flat, got)
+		}
+	}
+}
