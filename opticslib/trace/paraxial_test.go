@@ -109,3 +109,26 @@ func TestFromParaxialGlass(t *testing.T) {
 		}
 	}
 }
+
+// TestTable checks the surface table of a system from the builder: one row
+// per surface and the image plane, positions in mm.
+func TestTable(t *testing.T) {
+	p, err := paraxial.NewBuilder().Space(20*mm).ThickLens(30*mm, paraxial.Flat, 5*mm, 1.5).Label("L1").Space(60 * mm).Build()
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := trace.FromParaxial(p, trace.Media{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	tb := s.Table()
+	if err := tb.Validate(); err != nil || len(tb.Rows) != 3 {
+		t.Fatalf("table %v rows, err %v:\n%s", len(tb.Rows), err, tb.Text())
+	}
+	if got := tb.Cell(1, 3); got != "25.000" {
+		t.Errorf("back vertex z = %q mm, want 25.000", got)
+	}
+	if got := tb.Cell(2, 3); got != "85.000" {
+		t.Errorf("image plane z = %q mm, want 85.000", got)
+	}
+}
