@@ -78,7 +78,7 @@ func stepGo(o *op, r *Rays, lo, hi int) {
 		t0 := -zi / nn
 		x0 := xi + float64(t0*li)
 		y0 := yi + float64(t0*mi)
-		b := c*(float64(x0*li)+float64(y0*mi)) - nn
+		b := float64(c*(float64(x0*li)+float64(y0*mi))) - nn
 		cc := c * (float64(x0*x0) + float64(y0*y0))
 		a := c * (1 + float64(float64(k*nn)*nn))
 		d := float64(b*b) - float64(a*cc)
