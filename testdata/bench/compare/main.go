@@ -26,6 +26,14 @@
 //     of every stretch (beam.Sample, which leaves the per-plane Gouy phase
 //     to Caustic.GouyPhase; NumPy: the same closed forms per homogeneous
 //     stretch, vectorised over planes).
+//   - realtrace-1core, realtrace-2core: 10⁶ real rays (skew, seeded)
+//     through an invented relay of ten spherical surfaces with clear
+//     apertures, exact intersections and refraction (trace.System.Trace
+//     with procs 1 and 2, the rays copied in from the start values each
+//     run; NumPy: the same tangent-plane-then-sphere algorithm vectorised
+//     over rays, surface by surface, one core). The checks compare the
+//     sums of the image-plane coordinates, directions and optical paths of
+//     the rays that arrive, and their count.
 //
 // It exits 0 with a message when the interpreter ($BEAMNOTE_PYTHON, else
 // /usr/bin/python3) cannot import numpy.
@@ -42,10 +50,12 @@ import (
 	"os/exec"
 	"path/filepath"
 	"slices"
+	"strconv"
 	"time"
 
 	"github.com/beamnote/beamnote/opticslib/beam"
 	"github.com/beamnote/beamnote/opticslib/paraxial"
+	"github.com/beamnote/beamnote/opticslib/trace"
 	"github.com/beamnote/beamnote/opticslib/units"
 )
 
@@ -67,12 +77,14 @@ type element struct {
 }
 
 type input struct {
-	Runs    int        `json:"runs"`
-	YFile   string     `json:"y_file"`
-	TFile   string     `json:"theta_file"`
-	Apply   [4]float64 `json:"apply"`
-	Trace   []element  `json:"trace"`
-	Caustic struct {
+	Runs      int        `json:"runs"`
+	RealRays  []string   `json:"real_files"` // x, y, z, L, M, N
+	RealSurfs []realSurf `json:"real_surfaces"`
+	YFile     string     `json:"y_file"`
+	TFile     string     `json:"theta_file"`
+	Apply     [4]float64 `json:"apply"`
+	Trace     []element  `json:"trace"`
+	Caustic   struct {
 		Elements []element     `json:"elements"`
 		Samples  int           `json:"samples"`
 		Length   float64       `json:"length"`
@@ -81,6 +93,33 @@ type input struct {
 		M2       [2]float64    `json:"m2"`
 		IndexIn  float64       `json:"n_in"`
 	} `json:"caustic"`
+}
+
+// realSurf is one op of the real-ray case as numpy_side.py reads it.
+type realSurf struct {
+	DZ    float64 `json:"dz"`
+	C     float64 `json:"c"`
+	A2    float64 `json:"a2"` // clear radius squared, -1 for unlimited
+	Mu    float64 `json:"mu"`
+	N     float64 `json:"n"`
+	Image bool    `json:"image"`
+}
+
+// realSystem is the relay of the real-ray case: ten refracting spheres,
+// invented, with clear apertures that block part of the rays.
+func realSystem() trace.System {
+	const mm = units.Millimeter
+	g1, g2, air := trace.Index(1.5168), trace.Index(1.62), trace.Index(1)
+	radii := []units.Length{60, -60, 40, -30, -120, -25, 80, 100, -45, -200}
+	media := []trace.Medium{g1, air, g1, g2, air, g2, air, g1, air, g1}
+	gaps := []units.Length{5, 30, 6, 2, 25, 3, 20, 5, 15, 4}
+	var surfs []trace.Surface
+	for i := range radii {
+		surfs = append(surfs, trace.Surface{Kind: trace.Refract, Radius: radii[i] * mm, ClearRadius: 11 * mm, Medium: media[i], Thickness: gaps[i] * mm})
+	}
+	surfs[len(surfs)-1].Medium = air
+	surfs[len(surfs)-1].Thickness = 40 * mm
+	return must(trace.New(air, surfs...))
 }
 
 type output struct {
@@ -252,6 +291,59 @@ func run(python string) error {
 	goSums["caustic"] = sumL(caustic.W) + sumL(caustic.WY) + sum(caustic.Curvature) + sum(caustic.CurvatureY) +
 		sum(caustic.Index)
 
+	// Real rays: 10⁶ skew rays within ±8 mm and ±0.02 rad, from z = −2 mm.
+	rsys := realSystem()
+	rrng := rand.New(rand.NewPCG(7, 7))
+	start := trace.NewRays(nRays)
+	for k := range nRays {
+		start.Set(k, trace.RayFromAngles(8e-3*(2*rrng.Float64()-1), 8e-3*(2*rrng.Float64()-1), -2e-3, 0.02*(2*rrng.Float64()-1), 0.02*(2*rrng.Float64()-1)))
+	}
+	for i, v := range [][]float64{start.X, start.Y, start.Z, start.L, start.M, start.N} {
+		f := filepath.Join(dir, "real"+strconv.Itoa(i)+".f64")
+		if err := writeFloats(f, v); err != nil {
+			return err
+		}
+		in.RealRays = append(in.RealRays, f)
+	}
+	prev := 0.0
+	for i := range rsys.Len() + 1 {
+		sf := realSurf{DZ: float64(rsys.Vertex(i)) - prev, A2: -1, Mu: 1, Image: i == rsys.Len()}
+		prev = float64(rsys.Vertex(i))
+		nb := must(rsys.MediumAfter(i - 1).Index(633e-9))
+		sf.N = nb
+		if i < rsys.Len() {
+			f := rsys.Surface(i)
+			sf.C = f.Curvature()
+			sf.A2 = float64(f.ClearRadius) * float64(f.ClearRadius)
+			sf.Mu = nb / must(rsys.MediumAfter(i).Index(633e-9))
+		}
+		in.RealSurfs = append(in.RealSurfs, sf)
+	}
+	rays := trace.NewRays(nRays)
+	for _, c := range []struct {
+		name  string
+		procs int
+	}{{"realtrace-1core", 1}, {"realtrace-2core", 2}} {
+		goMS[c.name] = median(func() {
+			copy(rays.X, start.X)
+			copy(rays.Y, start.Y)
+			copy(rays.Z, start.Z)
+			copy(rays.L, start.L)
+			copy(rays.M, start.M)
+			copy(rays.N, start.N)
+			clear(rays.OPL)
+			must(0, rsys.Trace(633e-9, rays, c.procs))
+		})
+	}
+	var rsum, rcount float64
+	for k := range nRays {
+		if rays.Status[k] == trace.OK {
+			rsum += rays.X[k] + rays.Y[k] + rays.L[k] + rays.M[k] + rays.N[k] + rays.OPL[k]
+			rcount++
+		}
+	}
+	goSums["realtrace"], goSums["realtrace_n"] = rsum, rcount
+
 	// The NumPy side, in the same invocation.
 	inPath, outPath := filepath.Join(dir, "in.json"), filepath.Join(dir, "out.json")
 	data, err := json.Marshal(in)
@@ -277,7 +369,7 @@ func run(python string) error {
 	// Same work: the results must agree (sums of ~10⁷ values of either
 	// sign in float64 differ by summation order only, ≲ 1e-9 relative to
 	// the sum of magnitudes; counts and grid sizes exactly).
-	for _, k := range []string{"apply", "trace", "trace_blocked", "caustic_n", "caustic"} {
+	for _, k := range []string{"apply", "trace", "trace_blocked", "caustic_n", "caustic", "realtrace", "realtrace_n"} {
 		g, p := goSums[k], out.Sums[k]
 		if math.Abs(g-p) > 1e-9*math.Max(1, math.Abs(g)) {
 			return fmt.Errorf("check %s: Go %.15g, NumPy %.15g: the two sides do not do the same work", k, g, p)
@@ -285,6 +377,7 @@ func run(python string) error {
 	}
 	for _, c := range []struct{ name, numpy string }{
 		{"apply", "apply"}, {"trace-1core", "trace"}, {"trace-2core", "trace"}, {"caustic", "caustic"},
+		{"realtrace-1core", "realtrace"}, {"realtrace-2core", "realtrace"},
 	} {
 		g, p := goMS[c.name], out.MS[c.numpy]
 		fmt.Printf("compare %s go_ms=%.3f numpy_ms=%.3f ratio=%.2f\n", c.name, g, p, p/g)
