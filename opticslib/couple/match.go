@@ -8,6 +8,7 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/beamnote/beamnote/opticslib/internal/boxmin"
 	"gonum.org/v1/gonum/optimize"
 
 	"github.com/beamnote/beamnote/opticslib/beam"
@@ -334,8 +335,9 @@ type interval struct{ lo, hi float64 }
 
 func (iv interval) fixed() bool { return iv.lo == iv.hi }
 
-// at maps the unconstrained x to the interval: lo + (hi − lo)(1 − cos x)/2.
-func (iv interval) at(x float64) float64 { return iv.lo + (iv.hi-iv.lo)*(1-math.Cos(x))/2 }
+// at maps the unconstrained x to the interval: lo + (hi − lo)(1 − cos x)/2
+// (boxmin.Range).
+func (iv interval) at(x float64) float64 { return boxmin.Range{Lo: iv.lo, Hi: iv.hi}.At(x) }
 
 // Solve finds focal lengths, lens positions and the target-plane position
 // within the bounds of p that maximise the overlap of the propagated
@@ -446,7 +448,7 @@ func Solve(p Problem) (Match, error) {
 		// not nil, on which bound it sits: −1 lower, +1 upper, 0 none.
 		next := func(iv interval) (float64, int) {
 			v, side := iv.at(x[xi]), 0
-			if frac := (1 - math.Cos(x[xi])) / 2; active != nil && frac <= atBound {
+			if frac := boxmin.Fraction(x[xi]); active != nil && frac <= atBound {
 				side = -1
 			} else if active != nil && frac >= 1-atBound {
 				side = 1
@@ -542,7 +544,7 @@ func Solve(p Problem) (Match, error) {
 		for c := range total {
 			x := make([]float64, n)
 			for j := range n {
-				x[j] = math.Acos(1 - 2*grid[c%len(grid)])
+				x[j] = boxmin.U(grid[c%len(grid)])
 				c /= len(grid)
 			}
 			starts = append(starts, x)
@@ -552,29 +554,21 @@ func Solve(p Problem) (Match, error) {
 		for range 81 {
 			x := make([]float64, n)
 			for j := range x {
-				x[j] = math.Acos(1 - 2*rng.Float64())
+				x[j] = boxmin.U(rng.Float64())
 			}
 			starts = append(starts, x)
 		}
 	}
 	bestX := starts[0]
-	bestF, _, _ := evaluate(bestX, nil)
 	if n > 0 {
-		prob := optimize.Problem{Func: func(x []float64) float64 { v, _, _ := evaluate(x, nil); return v }}
-		settings := &optimize.Settings{FuncEvaluations: 4000, Converger: &optimize.FunctionConverge{Absolute: 1e-15, Iterations: 60}}
-		run := func(x0 []float64) {
-			res, err := optimize.Minimize(prob, x0, settings, &optimize.NelderMead{})
-			if err != nil || res == nil {
-				return
-			}
-			if res.F < bestF {
-				bestF, bestX = res.F, slices.Clone(res.X)
-			}
+		cost := func(x []float64) float64 { v, _, _ := evaluate(x, nil); return v }
+		if best, ok := boxmin.Search(cost, starts, boxmin.Settings{
+			Evaluations: 4000,
+			Converger:   func() optimize.Converger { return &optimize.FunctionConverge{Absolute: 1e-15, Iterations: 60} },
+			Polish:      true,
+		}); ok {
+			bestX = best.U
 		}
-		for _, x0 := range starts {
-			run(x0)
-		}
-		run(slices.Clone(bestX))
 	}
 	var active []string
 	_, placed, L := evaluate(bestX, &active)

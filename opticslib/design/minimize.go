@@ -7,6 +7,7 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/beamnote/beamnote/opticslib/internal/boxmin"
 	"gonum.org/v1/gonum/optimize"
 
 	"github.com/beamnote/beamnote/opticslib/internal/errtext"
@@ -177,25 +178,6 @@ func (s Solution) Table() table.Table {
 // String returns the table as text.
 func (s Solution) String() string { return s.Table().Text() }
 
-// bounded is the smooth map of an unconstrained coordinate u onto a
-// variable's bounds,
-//
-//	x(u) = lo + (hi − lo)(1 − cos u)/2,
-//
-// which reaches both bounds (at u = 0 and π) and never leaves them, so
-// that an unconstrained minimiser searches the bounded box (the same idea
-// as couple.Solve; there x is a lens position or a focal length). Its
-// inverse on [0, π] is u = arccos(1 − 2(x − lo)/(hi − lo)).
-type bounded struct{ lo, hi float64 }
-
-func (b bounded) at(u float64) float64 {
-	x := b.lo + (b.hi-b.lo)*(1-math.Cos(u))/2
-	return min(max(x, b.lo), b.hi)
-}
-
-// from returns the u of the fraction t ∈ [0, 1] of the range.
-func (b bounded) from(t float64) float64 { return math.Acos(1 - 2*min(max(t, 0), 1)) }
-
 // uncomputable is the cost Minimize gives a point where a goal cannot be
 // computed or a variable not applied: far above any cost of a computable
 // point, and finite, so that Nelder–Mead moves away from it.
@@ -306,11 +288,11 @@ func Minimize(p Problem, s *Settings) (Solution, error) {
 		return Solution{}, err
 	}
 	var free []int
-	var maps []bounded
+	var maps []boxmin.Range
 	for i, v := range p.Variables {
 		if v.Min < v.Max {
 			free = append(free, i)
-			maps = append(maps, bounded{float64(v.Min), float64(v.Max)})
+			maps = append(maps, boxmin.Range{Lo: float64(v.Min), Hi: float64(v.Max)})
 		}
 	}
 	n := len(free)
@@ -320,7 +302,7 @@ func Minimize(p Problem, s *Settings) (Solution, error) {
 	values := func(u []float64) []units.Length {
 		x := slices.Clone(x0)
 		for k, i := range free {
-			x[i] = units.Length(maps[k].at(u[k]))
+			x[i] = units.Length(maps[k].At(u[k]))
 		}
 		return x
 	}
@@ -334,70 +316,62 @@ func Minimize(p Problem, s *Settings) (Solution, error) {
 		return p.objective(sys, centred)
 	}
 	var bestU []float64
-	bestF := math.Inf(1)
 	if n > 0 {
 		starts, labels := p.starts(x0, free, maps, cfg)
-		run := func(u0 []float64, centred bool) (*optimize.Result, error) {
-			prob := optimize.Problem{Func: func(u []float64) float64 {
+		search := func(starts [][]float64, usable func([]float64) bool, centred, polish bool) (boxmin.Best, bool) {
+			b, ok := boxmin.Search(func(u []float64) float64 {
 				c, err := cost(u, centred)
 				if err != nil {
 					return uncomputable
 				}
 				return c
-			}}
-			settings := &optimize.Settings{
-				FuncEvaluations: cfg.FuncEvaluations,
-				Converger:       &metConverger{optimize.FunctionConverge{Absolute: 1e-18, Relative: 1e-12, Iterations: 50}},
-			}
-			sol.Runs++
-			return optimize.Minimize(prob, u0, settings, &optimize.NelderMead{})
+			}, starts, boxmin.Settings{
+				Evaluations: cfg.FuncEvaluations,
+				Converger: func() optimize.Converger {
+					return &metConverger{optimize.FunctionConverge{Absolute: 1e-18, Relative: 1e-12, Iterations: 50}}
+				},
+				Usable:     usable,
+				StopAtZero: true,
+				Polish:     polish,
+			})
+			sol.Runs += b.Runs
+			return b, ok
 		}
+		// Starts where the cost cannot be computed are skipped; the first
+		// one's error is returned when no start can be.
 		var firstErr error
-		var bestStatus optimize.Status
-		for i, u0 := range starts {
-			if _, err := cost(u0, false); err != nil {
-				if firstErr == nil {
-					sys, aerr := p.Apply(values(u0))
-					if aerr != nil {
-						firstErr = aerr
-					} else if _, eerr := p.Evaluate(sys); eerr != nil {
-						firstErr = eerr
-					} else {
-						firstErr = err
-					}
+		usable := func(u0 []float64) bool {
+			_, err := cost(u0, false)
+			if err != nil && firstErr == nil {
+				sys, aerr := p.Apply(values(u0))
+				if aerr != nil {
+					firstErr = aerr
+				} else if _, eerr := p.Evaluate(sys); eerr != nil {
+					firstErr = eerr
+				} else {
+					firstErr = err
 				}
-				continue
 			}
-			res, _ := run(u0, false)
-			if res == nil {
-				continue
-			}
-			if res.F < bestF {
-				bestF, bestU, bestStatus, sol.Start = res.F, slices.Clone(res.X), res.Status, labels[i]
-			}
-			if bestF == 0 {
-				break
-			}
+			return err == nil
 		}
-		if bestU == nil {
+		best, ok := search(starts, usable, false, true)
+		if !ok {
 			if firstErr != nil {
 				return Solution{}, firstErr
 			}
 			return Solution{}, &ParamError{Param: "starts", Value: len(starts), Reason: "every Nelder–Mead run failed", Err: ErrNotConverged}
 		}
-		if bestF > 0 {
-			if res, _ := run(slices.Clone(bestU), false); res != nil && res.F <= bestF {
-				bestF, bestU, bestStatus, sol.Start = res.F, slices.Clone(res.X), res.Status, sol.Start+", polish"
-			}
+		bestU, sol.Status, sol.Start = best.U, best.Status, labels[best.Start]
+		if best.Polished {
+			sol.Start += ", polish"
 		}
-		if bestF == 0 && p.twoSided() {
-			if res, _ := run(slices.Clone(bestU), true); res != nil {
-				if c, err := cost(res.X, false); err == nil && c == 0 {
-					bestU, sol.Centred = slices.Clone(res.X), true
+		if best.F == 0 && p.twoSided() {
+			if c, ok := search([][]float64{slices.Clone(bestU)}, nil, true, false); ok {
+				if f, err := cost(c.U, false); err == nil && f == 0 {
+					bestU, sol.Centred = c.U, true
 				}
 			}
 		}
-		sol.Status = bestStatus
 	}
 	x := x0
 	if bestU != nil {
@@ -440,20 +414,20 @@ func (p Problem) twoSided() bool {
 
 // starts returns Minimize's starting points in the unconstrained
 // coordinates, and their names.
-func (p Problem) starts(x0 []units.Length, free []int, maps []bounded, cfg Settings) ([][]float64, []string) {
+func (p Problem) starts(x0 []units.Length, free []int, maps []boxmin.Range, cfg Settings) ([][]float64, []string) {
 	n := len(free)
 	var us [][]float64
 	var labels []string
 	at := func(ts []float64) []float64 {
 		u := make([]float64, n)
 		for k := range u {
-			u[k] = maps[k].from(ts[k])
+			u[k] = boxmin.U(ts[k])
 		}
 		return u
 	}
 	ts := make([]float64, n)
 	for k, i := range free {
-		ts[k] = min(max(float64(x0[i])-maps[k].lo, 0)/(maps[k].hi-maps[k].lo), 1)
+		ts[k] = min(max(float64(x0[i])-maps[k].Lo, 0)/(maps[k].Hi-maps[k].Lo), 1)
 		ts[k] = min(max(ts[k], 0.01), 0.99)
 	}
 	us, labels = append(us, at(ts)), append(labels, "start point")
