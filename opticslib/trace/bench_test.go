@@ -46,7 +46,7 @@ func benchRays(n int) *Rays {
 // surfaces. The rays are reset from a saved copy outside the timer.
 func BenchmarkTrace(b *testing.B) {
 	s := benchSystem(b)
-	for _, n := range []int{1 << 12, 1 << 17} {
+	for _, n := range []int{1 << 12, 1 << 14, 1 << 17} {
 		for _, vec := range []bool{true, false} {
 			if vec && !useVector {
 				continue

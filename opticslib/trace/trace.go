@@ -95,9 +95,11 @@ func (s System) Trace(vacuum units.Length, r *Rays, procs int) error {
 		s.run(ops, r, 0, n)
 		return nil
 	}
+	// The first share runs on the calling goroutine, the others on their
+	// own.
 	var wg sync.WaitGroup
 	per := (tiles + procs - 1) / procs
-	for w := range procs {
+	for w := 1; w < procs; w++ {
 		lo, hi := w*per*tile, min((w+1)*per*tile, n)
 		if lo >= hi {
 			break
@@ -108,6 +110,7 @@ func (s System) Trace(vacuum units.Length, r *Rays, procs int) error {
 			s.run(ops, r, lo, hi)
 		}()
 	}
+	s.run(ops, r, 0, min(per*tile, n))
 	wg.Wait()
 	return nil
 }
