@@ -58,7 +58,9 @@ type config struct {
 	multiples         bool
 	multiplesSet      bool
 	tolerances        []float64
-	err               error
+	// names of the curves of the real-ray figures (realrays.go).
+	names []string
+	err   error
 }
 
 // overlay is a caustic drawn over the main one ([Also]).
@@ -134,6 +136,16 @@ func Zoom(z, halfWidth units.Length) Option {
 		c.hasRange, c.zoom = true, true
 		c.z0, c.z1 = (z - halfWidth).Millimeters(), (z + halfWidth).Millimeters()
 	}
+}
+
+// Names names the curves of the real-ray figures in the key and caption,
+// in order: the fan pairs of [RayAberration] (the k-th name for the k-th
+// tangential and sagittal fans), the curves of
+// [SphericalAberrationCurve] and [FocalShiftCurve], the ray groups of
+// [RealRayLayout] that have no Label. Curves beyond the names keep their
+// default names.
+func Names(names ...string) Option {
+	return func(c *config) { c.names = append([]string(nil), names...) }
 }
 
 // Label names the main caustic in the key; it is shown when set and

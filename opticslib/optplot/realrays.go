@@ -64,6 +64,14 @@ func checkCurve(fn, name, xName, yName string, x, y []float64) error {
 	return nil
 }
 
+// name returns the k-th name of [Names], or def.
+func (cfg config) name(k int, def string) string {
+	if k < len(cfg.names) && cfg.names[k] != "" {
+		return cfg.names[k]
+	}
+	return def
+}
+
 // planeText is "785 nm at z = 31.2 mm", the key text of a curve group.
 func planeText(wavelength, plane units.Length) string {
 	return table.Sig(wavelength.Nanometers(), 5) + " nm at z = " + table.Sig(plane.Millimeters(), 6) + " mm"
@@ -120,7 +128,8 @@ func (n panelNames) Plot(c draw.Canvas, plt *plot.Plot) {
 // zero lines through its centre. Each wavelength and image plane has its
 // own colour, the tangential curve solid and the sagittal one dashed;
 // the key names each by wavelength and plane and gives its largest
-// error. The options [Title], [Caption] and [Size] apply.
+// error. The options [Title], [Caption], [Size] and [Names] (one name per
+// tangential–sagittal pair) apply.
 //
 // It returns a [*ParamError] wrapping [ErrAberration] when there is no
 // fan, a fan has fewer than two rays, Pupil and Error differ in length, a
@@ -176,13 +185,13 @@ func RayAberration(fans []trace.Fan, opts ...Option) (Figure, error) {
 		} else {
 			nSag++
 		}
-		where := strconv.Itoa(pair+1) + ": " + planeText(f.Wavelength, f.Plane)
+		where := cfg.name(pair, "pair "+strconv.Itoa(pair+1)) + ": " + planeText(f.Wavelength, f.Plane)
 		label := ""
 		if f.Tangential || pair >= nTan {
 			label = where // one key entry per pair
 		}
 		curves = append(curves, curve{xys: xys, style: groupColor(pair, !f.Tangential), label: label})
-		caption += "; " + kind + " " + strconv.Itoa(pair+1) + " (" + planeText(f.Wavelength, f.Plane) + "): largest " + table.Sig(worst, 3) + " µm"
+		caption += "; " + cfg.name(pair, "pair "+strconv.Itoa(pair+1)) + ", " + kind + " (" + planeText(f.Wavelength, f.Plane) + "): largest " + table.Sig(worst, 3) + " µm"
 	}
 	half := 1.25 * largest
 	if !(half > 0) {
@@ -212,7 +221,8 @@ func RayAberration(fans []trace.Fan, opts ...Option) (Figure, error) {
 // crosses the axis relative to the paraxial focus (µm, horizontal), one
 // colour per curve, with the paraxial focus as the vertical zero line.
 // The key names each curve by wavelength and paraxial focus and gives the
-// rim ray's shift. The options [Title], [Caption] and [Size] apply.
+// rim ray's shift. The options [Title], [Caption], [Size] and [Names]
+// apply.
 //
 // It returns a [*ParamError] wrapping [ErrAberration] when there is no
 // curve, a curve has fewer than two rays, Height and Shift differ in
@@ -251,6 +261,9 @@ func SphericalAberrationCurve(las []trace.LongitudinalAberration, opts ...Option
 		}
 		text := table.Sig(la.Wavelength.Nanometers(), 5) + " nm, paraxial focus z = " + table.Sig(la.Paraxial.Millimeters(), 6) +
 			" mm: rim ray (h = " + table.Sig(rim/1e-3, 3) + " mm) " + table.Sig(rimShift, 3) + " µm"
+		if i < len(cfg.names) && cfg.names[i] != "" {
+			text = cfg.names[i] + ", " + text
+		}
 		curves = append(curves, curve{xys: xys, style: groupColor(i, false), label: text})
 		caption += " " + text + ";"
 	}
@@ -281,8 +294,8 @@ func SphericalAberrationCurve(las []trace.LongitudinalAberration, opts ...Option
 // (solid) and the rim ray's axis crossing (dashed, the same colour; left
 // out where the rim ray was lost) relative to the paraxial focus at the
 // reference wavelength, in µm against vacuum wavelength in nm, with the
-// zero line and a dot at the reference. The options [Title], [Caption]
-// and [Size] apply.
+// zero line and a dot at the reference. The options [Title], [Caption],
+// [Size] and [Names] apply.
 //
 // It returns a [*ParamError] wrapping [ErrAberration] when there is no
 // curve, a curve has fewer than two wavelengths, Wavelengths, Shift,
@@ -333,16 +346,20 @@ func FocalShiftCurve(fss []trace.FocalShift, opts ...Option) (Figure, error) {
 			lo, hi = math.Min(lo, nm[j]), math.Max(hi, nm[j])
 		}
 		refText := "reference " + table.Sig(ref, 5) + " nm"
-		curves = append(curves, curve{xys: par, style: groupColor(i, false), label: "paraxial focus (" + refText + ")"})
+		who := ""
+		if i < len(cfg.names) && cfg.names[i] != "" {
+			who = cfg.names[i] + ": "
+		}
+		curves = append(curves, curve{xys: par, style: groupColor(i, false), label: who + "paraxial focus (" + refText + ")"})
 		if len(rim) >= 2 {
 			curves = append(curves, curve{xys: rim, style: groupColor(i, true),
-				label: "rim ray, h = " + table.Sig(fs.PupilRadius.Millimeters(), 3) + " mm"})
+				label: who + "rim ray, h = " + table.Sig(fs.PupilRadius.Millimeters(), 3) + " mm"})
 		}
 		span := 0.0
 		for _, v := range par {
 			span = math.Max(span, math.Abs(v.Y))
 		}
-		caption += " " + refText + ", paraxial focus within ±" + table.Sig(span, 3) + " µm from " + table.Sig(lo, 5) + " to " + table.Sig(hi, 5) + " nm;"
+		caption += " " + who + refText + ", paraxial focus within ±" + table.Sig(span, 3) + " µm from " + table.Sig(lo, 5) + " to " + table.Sig(hi, 5) + " nm;"
 		dot, err := plotter.NewScatter(plotter.XYs{{X: ref, Y: 0}})
 		if err != nil {
 			return Figure{}, err
@@ -384,7 +401,7 @@ type RayPaths struct {
 // stops as bars from their opening outwards, an ideal lens as a line
 // with end ticks, and the image plane as a thin line. Each group of paths
 // has its own colour and, with a label, a key entry. The options [Title],
-// [Caption] and [Size] apply.
+// [Caption], [Size] and [Names] apply.
 //
 // It returns a [*ParamError] wrapping [ErrAberration] for a system not
 // built, a wavelength at which a medium has no index, a path with fewer
@@ -429,10 +446,14 @@ func RealRayLayout(sys trace.System, vacuum units.Length, rays []RayPaths, opts 
 			pts = append(pts, xys)
 			total++
 		}
+		groupName := rp.Label
+		if groupName == "" {
+			groupName = cfg.name(g, "")
+		}
 		for k, xys := range pts {
 			label := ""
 			if k == 0 {
-				label = rp.Label
+				label = groupName
 			}
 			groups = append(groups, curve{xys: xys, style: draw.LineStyle{Color: layFanColors[g%len(layFanColors)], Width: rayWidth}, label: label})
 		}

@@ -27,7 +27,7 @@ func ExampleRayAberration() {
 		fmt.Println(err)
 		return
 	}
-	fig, err := optplot.RayAberration([]trace.Fan{tan, sag})
+	fig, err := optplot.RayAberration([]trace.Fan{tan, sag}, optplot.Names("curved side first"))
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -50,6 +50,6 @@ func ExampleRayAberration() {
 	}
 	fmt.Println(side.Caption)
 	// Output:
-	// Transverse ray aberration; tangential 1 (633 nm at z = 49.7 mm): largest 27 µm; sagittal 1 (633 nm at z = 49.7 mm): largest 27 µm (largest ray error 27 µm).
+	// Transverse ray aberration; curved side first, tangential (633 nm at z = 49.7 mm): largest 27 µm; curved side first, sagittal (633 nm at z = 49.7 mm): largest 27 µm (largest ray error 27 µm).
 	// Real rays: 2 surfaces from z = 0 mm, image plane at z = 49.7 mm, 7 rays; on axis: 7.
 }
