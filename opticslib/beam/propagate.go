@@ -164,21 +164,51 @@ func Waists(sys paraxial.System, in Input) (WaistList, error) {
 		if a.X.Validate() != nil || a.Y.Validate() != nil {
 			return nil, ErrOverflow
 		}
-		end := pc.To
-		out = append(out, Waist{
-			Element:        pc.Element,
-			Name:           sys.Element(pc.Element).Name(),
-			AfterElement:   a.X.WaistOffset(),
-			Z:              end + a.X.WaistOffset(),
-			Radius:         a.X.WaistRadius(),
-			RayleighRange:  a.X.RayleighRange(),
-			Index:          pc.IndexOut,
-			ZY:             end + a.Y.WaistOffset(),
-			RadiusY:        a.Y.WaistRadius(),
-			RayleighRangeY: a.Y.RayleighRange(),
-		})
+		out = append(out, waistAfter(sys, pc, a))
 	}
 	return out, nil
+}
+
+// OutputWaist returns the waist of the beam leaving sys, the last entry
+// of [Waists] (the zero Waist for a system with no element), without
+// building the others: the goal that asks only for the output waist
+// evaluates it at every step of a search. Its errors are those of
+// [Waists].
+func OutputWaist(sys paraxial.System, in Input) (Waist, error) {
+	a, err := checkInput(sys, in)
+	if err != nil {
+		return Waist{}, err
+	}
+	var last paraxial.Piece
+	n := 0
+	for pc := range sys.Walk(0, sys.Length()) {
+		a = a.Transform(pc.X, pc.Y, pc.IndexOut)
+		if a.X.Validate() != nil || a.Y.Validate() != nil {
+			return Waist{}, ErrOverflow
+		}
+		last, n = pc, n+1
+	}
+	if n == 0 {
+		return Waist{}, nil
+	}
+	return waistAfter(sys, last, a), nil
+}
+
+// waistAfter is the waist of the beam a just after the piece pc of sys.
+func waistAfter(sys paraxial.System, pc paraxial.Piece, a Astigmatic) Waist {
+	end := pc.To
+	return Waist{
+		Element:        pc.Element,
+		Name:           sys.Element(pc.Element).Name(),
+		AfterElement:   a.X.WaistOffset(),
+		Z:              end + a.X.WaistOffset(),
+		Radius:         a.X.WaistRadius(),
+		RayleighRange:  a.X.RayleighRange(),
+		Index:          pc.IndexOut,
+		ZY:             end + a.Y.WaistOffset(),
+		RadiusY:        a.Y.WaistRadius(),
+		RayleighRangeY: a.Y.RayleighRange(),
+	}
 }
 
 // Focus is a real waist: a minimum of the beam radius that lies inside a

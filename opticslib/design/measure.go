@@ -49,18 +49,17 @@ func WaistAfter(in beam.Input, label string) Measure[units.Length] {
 }
 
 // LastWaist returns the last waist of the beam in through sys (the output
-// beam's, [beam.Waists]), and an error for a system with no element after
+// beam's, [beam.OutputWaist]), and an error for a system with no element after
 // which to take one, where [beam.WaistList.Last] would give the zero
 // Waist.
 func LastWaist(sys paraxial.System, in beam.Input) (beam.Waist, error) {
-	ws, err := beam.Waists(sys, in)
-	if err != nil {
-		return beam.Waist{}, err
-	}
-	if len(ws) == 0 {
+	if sys.Len() == 0 {
+		if err := sys.Validate(); err != nil {
+			return beam.Waist{}, err
+		}
 		return beam.Waist{}, &ParamError{Param: "system", Reason: "has no element, so no output waist"}
 	}
-	return ws.Last(), nil
+	return beam.OutputWaist(sys, in)
 }
 
 // RadiusAt measures the beam radius w (1/e², metres, tangential plane)
