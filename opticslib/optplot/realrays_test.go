@@ -8,6 +8,7 @@ import (
 	"github.com/beamnote/beamnote/opticslib/material"
 	"github.com/beamnote/beamnote/opticslib/trace"
 	"github.com/beamnote/beamnote/opticslib/units"
+	"gonum.org/v1/gonum/spatial/r3"
 )
 
 // realLens is an invented bench test piece: an N-BK7 plano-convex lens
@@ -129,6 +130,9 @@ func TestRealRayFigureErrors(t *testing.T) {
 		{"fan pupil", second(RayAberration([]trace.Fan{{Pupil: []float64{0, 2}, Error: []float64{0, 0}}})), "Pupil[1]"},
 		{"no LSA", second(SphericalAberrationCurve(nil)), "curves = 0"},
 		{"LSA lengths", second(SphericalAberrationCurve([]trace.LongitudinalAberration{{Height: []float64{0, 1}, Shift: []float64{0}}})), "Shift points"},
+		{"LSA NaN", second(SphericalAberrationCurve([]trace.LongitudinalAberration{{Height: []float64{0, 1e-3}, Shift: []float64{nan, 0}}})), "Shift[0] = NaN"},
+		{"focal shift NaN", second(FocalShiftCurve([]trace.FocalShift{{Reference: lambda, Wavelengths: []units.Length{500e-9, 600e-9}, Shift: []float64{0, nan}, Marginal: []float64{0, 0}, MarginalLost: []bool{false, false}}})), "Shift[1]"},
+		{"layout NaN", second(RealRayLayout(realLens(t), lambda, []RayPaths{{Paths: [][]trace.Ray{{{}, {Position: r3.Vec{Z: nan}}}}}})), "point 1"},
 		{"focal shift marginal", second(FocalShiftCurve([]trace.FocalShift{{Reference: lambda, Wavelengths: []units.Length{500e-9, 600e-9}, Shift: []float64{0, 1e-6}}})), "Marginal points"},
 		{"layout not built", second(RealRayLayout(trace.System{}, lambda, nil)), "not built"},
 		{"layout short path", second(RealRayLayout(realLens(t), lambda, []RayPaths{{Paths: [][]trace.Ray{{{}}}}})), "points = 1"},
