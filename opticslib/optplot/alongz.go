@@ -223,7 +223,7 @@ func AlongZ(c beam.Caustic, q Quantity, opts ...Option) (Figure, error) {
 	key := &keyBox{scene: &scene{}}
 	if q.kind == qCurvature {
 		// The zero line: every waist crosses it.
-		if err := addLine(p, plotter.XYs{{X: lo, Y: 0}, {X: hi, Y: 0}}, draw.LineStyle{Color: axisColor, Width: vg.Points(0.6), Dashes: []vg.Length{vg.Points(1), vg.Points(2.5)}}); err != nil {
+		if err := addLine(p, plotter.XYs{{X: lo, Y: 0}, {X: hi, Y: 0}}, zeroStyle); err != nil {
 			return Figure{}, err
 		}
 	}

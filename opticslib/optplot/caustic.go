@@ -392,7 +392,7 @@ func Caustic(c beam.Caustic, sys paraxial.System, opts ...Option) (Figure, error
 		band.LineStyle = draw.LineStyle{} // no outline
 		p.Add(band)
 	}
-	if err := addLine(p, plotter.XYs{{X: lo, Y: 0}, {X: hi, Y: 0}}, draw.LineStyle{Color: axisColor, Width: vg.Points(0.6), Dashes: []vg.Length{vg.Points(1), vg.Points(2.5)}}); err != nil {
+	if err := addLine(p, plotter.XYs{{X: lo, Y: 0}, {X: hi, Y: 0}}, zeroStyle); err != nil {
 		return Figure{}, err
 	}
 

@@ -234,7 +234,7 @@ func Stability(c cavity.Cavity, opts ...Option) (Figure, error) {
 			return Figure{}, err
 		}
 	}
-	diag := draw.LineStyle{Color: axisColor, Width: vg.Points(0.6), Dashes: []vg.Length{vg.Points(1), vg.Points(2.5)}}
+	diag := zeroStyle
 	dd := math.Min(hx, hy)
 	if err := addLine(p, plotter.XYs{{X: -dd, Y: -dd}, {X: dd, Y: dd}}, diag); err != nil {
 		return Figure{}, err

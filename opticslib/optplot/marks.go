@@ -28,6 +28,9 @@ var (
 	warnColor      = color.NRGBA{R: 0xd2, G: 0x3c, B: 0x1e, A: 0xff} // vermilion: clipping stop
 )
 
+// zeroStyle is the thin dotted grey of zero lines and reference diagonals.
+var zeroStyle = draw.LineStyle{Color: axisColor, Width: vg.Points(0.6), Dashes: []vg.Length{vg.Points(1), vg.Points(2.5)}}
+
 // Mark is one zero-thickness element drawn by [Marks], in plot units
 // (millimetres).
 type Mark struct {

@@ -21,15 +21,16 @@ import (
 // values that are not finite.
 var ErrAberration = errors.New("optplot: real-ray figure needs curves with matching lengths and finite values")
 
-// Styles of the real-ray figures: a thin grey zero line, and the dash of
-// the second curve of a pair (sagittal fans, rim rays).
+// Styles of the real-ray figures: the dash of the second curve of a pair
+// (sagittal fans, rim rays) and the line widths.
 var (
-	zeroStyle   = draw.LineStyle{Color: axisColor, Width: vg.Points(0.6), Dashes: []vg.Length{vg.Points(1), vg.Points(2.5)}}
-	pairDashes  = []vg.Length{vg.Points(4), vg.Points(2)}
-	curveWidth  = vg.Points(1.3)
-	rayWidth    = vg.Points(0.6)
-	panelOffset = 1.15 // pupil-axis shift of each half of RayAberration
+	pairDashes = []vg.Length{vg.Points(4), vg.Points(2)}
+	curveWidth = vg.Points(1.3)
+	rayWidth   = vg.Points(0.6)
 )
+
+// panelOffset is the pupil-axis shift of each half of [RayAberration].
+const panelOffset = 1.15
 
 // groupColor returns the colour style of curve group i: the fan colours
 // of the package, cycled.
@@ -185,13 +186,14 @@ func RayAberration(fans []trace.Fan, opts ...Option) (Figure, error) {
 		} else {
 			nSag++
 		}
-		where := cfg.name(pair, "pair "+strconv.Itoa(pair+1)) + ": " + planeText(f.Wavelength, f.Plane)
+		who, at := cfg.name(pair, "pair "+strconv.Itoa(pair+1)), planeText(f.Wavelength, f.Plane)
+		where := who + ": " + at
 		label := ""
 		if f.Tangential || pair >= nTan {
 			label = where // one key entry per pair
 		}
 		curves = append(curves, curve{xys: xys, style: groupColor(pair, !f.Tangential), label: label})
-		caption += "; " + cfg.name(pair, "pair "+strconv.Itoa(pair+1)) + ", " + kind + " (" + planeText(f.Wavelength, f.Plane) + "): largest " + table.Sig(worst, 3) + " µm"
+		caption += "; " + who + ", " + kind + " (" + at + "): largest " + table.Sig(worst, 3) + " µm"
 	}
 	half := 1.25 * largest
 	if !(half > 0) {
@@ -261,8 +263,8 @@ func SphericalAberrationCurve(las []trace.LongitudinalAberration, opts ...Option
 		}
 		text := table.Sig(la.Wavelength.Nanometers(), 5) + " nm, paraxial focus z = " + table.Sig(la.Paraxial.Millimeters(), 6) +
 			" mm: rim ray (h = " + table.Sig(rim/1e-3, 3) + " mm) " + table.Sig(rimShift, 3) + " µm"
-		if i < len(cfg.names) && cfg.names[i] != "" {
-			text = cfg.names[i] + ", " + text
+		if who := cfg.name(i, ""); who != "" {
+			text = who + ", " + text
 		}
 		curves = append(curves, curve{xys: xys, style: groupColor(i, false), label: text})
 		caption += " " + text + ";"
@@ -346,9 +348,9 @@ func FocalShiftCurve(fss []trace.FocalShift, opts ...Option) (Figure, error) {
 			lo, hi = math.Min(lo, nm[j]), math.Max(hi, nm[j])
 		}
 		refText := "reference " + table.Sig(ref, 5) + " nm"
-		who := ""
-		if i < len(cfg.names) && cfg.names[i] != "" {
-			who = cfg.names[i] + ": "
+		who := cfg.name(i, "")
+		if who != "" {
+			who += ": "
 		}
 		curves = append(curves, curve{xys: par, style: groupColor(i, false), label: who + "paraxial focus (" + refText + ")"})
 		if len(rim) >= 2 {

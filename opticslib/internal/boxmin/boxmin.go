@@ -8,10 +8,8 @@
 //	x(u) = lo + (hi − lo)(1 − cos u)/2,
 //
 // which reaches both bounds (at u = 0 and π) and never leaves them, so
-// that an unconstrained minimiser searches the box (a standard
-// transformation for bound constraints; see e.g. J. Nocedal and S. J.
-// Wright, Numerical Optimization, 2nd ed., Springer 2006, §17.5 [from
-// memory], for the idea of removing bounds by a change of variables).
+// that an unconstrained minimiser searches the box (removing bounds by a
+// change of variables: common practice, no single source).
 package boxmin
 
 import (
